@@ -1,0 +1,201 @@
+package calc
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"strings"
+
+	"fogbench/calc/valid"
+)
+
+// CaseFormat is the format tag of version 1 of the case file
+// (docs/case-format.md). Field names of version 1 stay stable; fields may be
+// added.
+const CaseFormat = "fogbench-case/1"
+
+// MaxCaseFileBytes bounds a case file (or an array of cases) read by Decode.
+const MaxCaseFileBytes = 8 << 20
+
+// Case is one spray scenario as an engineer enters it: the liquid, the gas it
+// is sprayed into, and the drop-size distribution. All quantities are SI with
+// the unit in the JSON name.
+type Case struct {
+	Format string `json:"format"`
+	Name   string `json:"name"`
+	Notes  string `json:"notes,omitempty"`
+	Fluid  string `json:"fluid"`
+
+	// LiquidTemperatureK fixes every drop's surface temperature. When nil,
+	// each bin's drop sits at its own solved steady (wet-bulb) temperature.
+	LiquidTemperatureK *float64 `json:"liquid_temperature_k,omitempty"`
+	// InjectionTemperatureK with Heating "transient" starts the drops at this
+	// temperature and heats or cools them in the evaporation history.
+	InjectionTemperatureK *float64 `json:"injection_temperature_k,omitempty"`
+	Heating               string   `json:"heating,omitempty"`
+
+	Gas          Gas          `json:"gas"`
+	Distribution Distribution `json:"distribution"`
+	Evaporation  Evaporation  `json:"evaporation,omitzero"`
+}
+
+// Gas is the far-field gas the spray enters.
+type Gas struct {
+	ID           string  `json:"id,omitempty"` // "air" (default) or "nitrogen"
+	PressurePa   float64 `json:"pressure_pa"`
+	TemperatureK float64 `json:"temperature_k"`
+	// Ambient vapor of the sprayed liquid, given in exactly one way.
+	VaporMoleFraction      *float64 `json:"vapor_mole_fraction,omitempty"`
+	VaporPartialPressurePa *float64 `json:"vapor_partial_pressure_pa,omitempty"`
+	RelativeHumidity       *float64 `json:"relative_humidity,omitempty"` // 0..1, of the sprayed liquid's vapor
+	RelativeVelocityMS     float64  `json:"relative_velocity_m_s,omitempty"`
+}
+
+// Distribution selects how the drop sizes are given: a parametric model, an
+// atomizer correlation, or measured bins.
+type Distribution struct {
+	Model string `json:"model"`
+
+	// rosin-rammler: 1 − Q3 = exp(−(D/X)^q)
+	XM float64 `json:"x_m,omitempty"`
+	Q  float64 `json:"q,omitempty"`
+	// log-normal: median of the number or volume distribution and the
+	// geometric standard deviation
+	MedianM float64 `json:"median_m,omitempty"`
+	GSD     float64 `json:"gsd,omitempty"`
+	// upper-limit (Mugele–Evans): maximum diameter, volume median, spread
+	DUpperM float64 `json:"d_upper_m,omitempty"`
+	Dv50M   float64 `json:"dv50_m,omitempty"`
+	Delta   float64 `json:"delta,omitempty"`
+	// nukiyama-tanasawa: dN/dD = a D^p exp(−b D^q_nt) with b given through
+	// the scale diameter b^(−1/q_nt)
+	ScaleM float64 `json:"scale_m,omitempty"`
+	P      float64 `json:"p,omitempty"`
+	QNT    float64 `json:"q_nt,omitempty"`
+	// Optional: size a parametric model by its Sauter mean diameter instead
+	// of its own scale parameter (rosin-rammler with q, log-normal with gsd).
+	D32M float64 `json:"d32_m,omitempty"`
+
+	// atomizer: family, correlation, inputs; the spread q above shapes the
+	// Rosin–Rammler distribution around the correlation's SMD.
+	Family      string             `json:"family,omitempty"`
+	Correlation string             `json:"correlation,omitempty"`
+	Inputs      map[string]float64 `json:"inputs,omitempty"`
+
+	// Cutting a model into bins.
+	Bins    int     `json:"bins,omitempty"`
+	DMinM   float64 `json:"d_min_m,omitempty"`
+	DMaxM   float64 `json:"d_max_m,omitempty"`
+	Spacing string  `json:"spacing,omitempty"` // "log" (default) or "linear"
+
+	// bins: measured or hand-entered classes.
+	EdgesM   []float64 `json:"edges_m,omitempty"`
+	Fraction []float64 `json:"fraction,omitempty"`
+	Basis    string    `json:"basis,omitempty"` // "volume" or "number"
+}
+
+// Evaporation holds the options of the evaporation model. The zero value is
+// the default: Ranz–Marshall convection, Fuchs–Sutugin transition correction,
+// curvature on.
+type Evaporation struct {
+	Convection        string  `json:"convection,omitempty"` // "ranz-marshall" (default), "abramzon-sirignano", "none"
+	NoTransition      bool    `json:"no_transition,omitempty"`
+	AccommodationCoef float64 `json:"accommodation_coefficient,omitempty"` // Fuchs–Sutugin α, default 1
+	SprayVelocityMS   float64 `json:"spray_velocity_m_s,omitempty"`        // for the history against distance
+	MassFlowKgS       float64 `json:"mass_flow_kg_s,omitempty"`            // for the drop count per second
+	MaxTimeS          float64 `json:"max_time_s,omitempty"`                // history horizon; default: to 99 % evaporated
+}
+
+// Decode reads one case or a JSON array of cases. Unknown fields are errors,
+// so a misspelt field name is reported rather than silently ignored.
+func Decode(r io.Reader) ([]Case, error) {
+	data, err := io.ReadAll(io.LimitReader(r, MaxCaseFileBytes+1))
+	if err != nil {
+		return nil, fmt.Errorf("read case file: %w", err)
+	}
+	if len(data) > MaxCaseFileBytes {
+		return nil, &valid.FieldError{Field: "file", Message: fmt.Sprintf("case file is larger than %d MiB", MaxCaseFileBytes>>20)}
+	}
+	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
+	trimmed := bytes.TrimSpace(data)
+	if len(trimmed) == 0 {
+		return nil, &valid.FieldError{Field: "file", Message: "case file is empty"}
+	}
+	if trimmed[0] == '[' {
+		var raws []json.RawMessage
+		if err := json.Unmarshal(trimmed, &raws); err != nil {
+			return nil, jsonError("", err)
+		}
+		cases := make([]Case, len(raws))
+		for i, raw := range raws {
+			c, err := DecodeOne(raw)
+			if err != nil {
+				return nil, fmt.Errorf("case %d: %w", i+1, err)
+			}
+			cases[i] = c
+		}
+		return cases, nil
+	}
+	c, err := DecodeOne(trimmed)
+	if err != nil {
+		return nil, err
+	}
+	return []Case{c}, nil
+}
+
+// DecodeOne reads one case from JSON.
+func DecodeOne(data []byte) (Case, error) {
+	var c Case
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(&c); err != nil {
+		return Case{}, jsonError(c.Name, err)
+	}
+	if dec.More() {
+		return Case{}, &valid.FieldError{Field: "file", Message: "unexpected data after the case object"}
+	}
+	return c, nil
+}
+
+// jsonError turns encoding/json's errors into field errors where it can.
+func jsonError(_ string, err error) error {
+	var te *json.UnmarshalTypeError
+	var se *json.SyntaxError
+	switch {
+	case errors.As(err, &te):
+		field := te.Field
+		if field == "" {
+			field = "file"
+		}
+		return &valid.FieldError{Field: field, Value: te.Value, Message: fmt.Sprintf("must be a %s", te.Type.String())}
+	case errors.As(err, &se):
+		return &valid.FieldError{Field: "file", Message: fmt.Sprintf("malformed JSON at byte %d: %v", se.Offset, se)}
+	case strings.HasPrefix(err.Error(), "json: unknown field "):
+		name := strings.Trim(strings.TrimPrefix(err.Error(), "json: unknown field "), `"`)
+		return &valid.FieldError{Field: name, Message: "unknown field (see docs/case-format.md)"}
+	case errors.Is(err, io.ErrUnexpectedEOF), errors.Is(err, io.EOF):
+		return &valid.FieldError{Field: "file", Message: "case file ends too early (truncated JSON)"}
+	}
+	return &valid.FieldError{Field: "file", Message: err.Error()}
+}
+
+// Encode writes the case as indented JSON, the form stored and exported.
+func (c Case) Encode() ([]byte, error) {
+	return json.MarshalIndent(c, "", "  ")
+}
+
+// Normalize fills defaults that the file may omit (format tag, gas id).
+func (c *Case) Normalize() {
+	if c.Format == "" {
+		c.Format = CaseFormat
+	}
+	if c.Gas.ID == "" {
+		c.Gas.ID = "air"
+	}
+	if c.Distribution.Spacing == "" && c.Distribution.Model != "bins" {
+		c.Distribution.Spacing = "log"
+	}
+	c.Name = strings.TrimSpace(c.Name)
+}

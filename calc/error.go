@@ -1,0 +1,83 @@
+package calc
+
+import (
+	"errors"
+	"fmt"
+
+	"fogbench/calc/valid"
+)
+
+// Code classifies an Error for the layers above: the server maps it to an
+// HTTP status, the command line to an exit code.
+type Code string
+
+const (
+	Invalid  Code = "invalid"  // the user's input is wrong; the message says how
+	NotFound Code = "notfound" // the thing asked for does not exist
+	Conflict Code = "conflict" // the thing changed since the user last saw it
+	Internal Code = "internal" // a fault of ours; the message is generic
+)
+
+// Error is an application error with a code and a message fit for the user.
+type Error struct {
+	Code    Code
+	Message string
+	Err     error // the underlying cause, logged but not shown for Internal
+}
+
+func (e *Error) Error() string {
+	if e.Err != nil && e.Code == Internal {
+		return fmt.Sprintf("%s: %v", e.Message, e.Err)
+	}
+	return e.Message
+}
+
+func (e *Error) Unwrap() error { return e.Err }
+
+// Errorf returns an *Error with the given code.
+func Errorf(code Code, format string, args ...any) *Error {
+	return &Error{Code: code, Message: fmt.Sprintf(format, args...)}
+}
+
+// ErrorCode reports the code of err: the code of an *Error in its chain,
+// Invalid for field errors, Internal for anything else.
+func ErrorCode(err error) Code {
+	var e *Error
+	var fe *valid.FieldError
+	var fes valid.Errors
+	switch {
+	case err == nil:
+		return ""
+	case errors.As(err, &e):
+		return e.Code
+	case errors.As(err, &fes), errors.As(err, &fe):
+		return Invalid
+	}
+	return Internal
+}
+
+// ErrorMessage returns the text to show a user for err: the message of an
+// *Error or field error, a generic sentence for internal faults.
+func ErrorMessage(err error) string {
+	var e *Error
+	if errors.As(err, &e) && e.Code != Internal {
+		return e.Message
+	}
+	if ErrorCode(err) == Invalid {
+		return err.Error()
+	}
+	return "An internal error occurred; it has been logged."
+}
+
+// FieldErrors returns the field errors in err's chain, or nil.
+func FieldErrors(err error) valid.Errors {
+	var fes valid.Errors
+	if errors.As(err, &fes) {
+		return fes
+	}
+	var fe *valid.FieldError
+	if errors.As(err, &fe) {
+		return valid.Errors{fe}
+	}
+	return nil
+}
