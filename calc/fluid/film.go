@@ -1,0 +1,140 @@
+package fluid
+
+import (
+	"math"
+
+	"fogbench/calc/valid"
+)
+
+// Film is the state of the gas film around an evaporating drop at the
+// reference state of the 1/3 rule, with mixture properties of vapor + gas.
+type Film struct {
+	T                 float64  `json:"temperature_k"`              // reference temperature, K
+	VaporMassFraction float64  `json:"vapor_mass_fraction"`        // reference vapor mass fraction
+	VaporMoleFraction float64  `json:"vapor_mole_fraction"`        // the same as a mole fraction
+	MolarMass         float64  `json:"molar_mass_kg_mol"`          // mixture molar mass, kg/mol
+	Density           float64  `json:"density_kg_m3"`              // ideal-gas mixture density, kg/m3
+	Viscosity         float64  `json:"viscosity_pa_s"`             // Wilke mixture viscosity, Pa s
+	Conductivity      float64  `json:"conductivity_w_m_k"`         // Mason-Saxena mixture conductivity, W/(m K)
+	HeatCapacity      float64  `json:"heat_capacity_j_kg_k"`       // mass-weighted mixture cp, J/(kg K)
+	VaporHeatCapacity float64  `json:"vapor_heat_capacity_j_kg_k"` // cp of the pure vapor at T, J/(kg K)
+	Diffusivity       float64  `json:"diffusivity_m2_s"`           // Fuller vapor-gas diffusivity, m2/s
+	MeanFreePath      float64  `json:"mean_free_path_m"`           // gas-kinetic mean free path of the mixture, m
+	Warnings          []string `json:"warnings,omitempty"`
+}
+
+// CheckFilm validates the inputs of FilmProperties: p, Ts and Tinf positive
+// and finite, Ys and Yinf in [0, 1), Ts inside the liquid's hard limits. It
+// returns the warnings of the liquid, vapor and gas range checks at the
+// reference state.
+func CheckFilm(l *Liquid, g *Gas, p, Ts, Tinf, Ys, Yinf float64) ([]string, error) {
+	var es valid.Errors
+	es.Add(valid.Positive("gas.pressure_pa", p))
+	es.Add(valid.Positive("gas.temperature_k", Tinf))
+	es.Add(valid.Between("surface_vapor_mass_fraction", Ys, 0, 1, ""))
+	es.Add(valid.Between("gas.vapor_mass_fraction", Yinf, 0, 1, ""))
+	if Ys >= 1 {
+		es.Add(valid.Errorf("surface_vapor_mass_fraction", Ys, "must be below 1 (the drop is boiling)"))
+	}
+	if Yinf >= 1 {
+		es.Add(valid.Errorf("gas.vapor_mass_fraction", Yinf, "must be below 1"))
+	}
+	lw, err := l.Check(Ts)
+	es.Add(err)
+	if err := es.Err(); err != nil {
+		return nil, err
+	}
+	tr := Ts + (Tinf-Ts)/3
+	vw, _ := l.VaporCheck(tr)
+	gw, _ := g.Check(tr, p)
+	return append(append(lw, vw...), gw...), nil
+}
+
+// FilmProperties evaluates the gas film at the reference state of the 1/3
+// rule (Hubbard, Denny & Mills, Int. J. Heat Mass Transfer 18 (1975) 1003;
+// Yuen & Chen 1976; from memory, REFERENCE-DATA 6.2):
+//
+//	Tr = Ts + (Tinf - Ts)/3,  Yr = Ys + (Yinf - Ys)/3
+//
+// with vapor (v) and gas (g) mixed by these rules:
+//
+//	x_v = (Yr/M_v) / (Yr/M_v + (1 - Yr)/M_g),  M = 1/(Yr/M_v + (1 - Yr)/M_g)
+//	density: ideal gas rho = p M/(R Tr)
+//	cp: mass-weighted cp = Yr cp_v + (1 - Yr) cp_g
+//	viscosity: Wilke (1950), Poling et al. 5th ed. eq. 9-5.13,
+//	  mu = sum_i x_i mu_i / sum_j x_j phi_ij,
+//	  phi_ij = [1 + (mu_i/mu_j)^(1/2) (M_j/M_i)^(1/4)]^2 / [8 (1 + M_i/M_j)]^(1/2)
+//	conductivity: Wassiljewa form with the Mason & Saxena (1958) A_ij = phi_ij,
+//	  Poling et al. 5th ed. eqs. 10-6.1 and 10-6.4 (epsilon = 1)
+//	diffusivity: Fuller (Diffusivity) at Tr, p
+//	mean free path: MeanFreePath with the mixture viscosity and molar mass
+//
+// p in Pa, temperatures in K, mass fractions dimensionless. Inputs must pass
+// CheckFilm; its warnings are copied into Film.Warnings. Invalid inputs are
+// held to the nearest valid value (T, p >= 1e-3, Y in [0, 0.999999]) so that
+// no NaN leaves the function.
+func FilmProperties(l *Liquid, g *Gas, p, Ts, Tinf, Ys, Yinf float64) Film {
+	w, err := CheckFilm(l, g, p, Ts, Tinf, Ys, Yinf)
+	if err != nil {
+		w = []string{"invalid film inputs, values held to the nearest valid ones: " + err.Error()}
+	}
+	p = positiveOr(p, 1e-3)
+	Ts = l.clampLiquid(Ts)
+	Tinf = positiveOr(Tinf, 1e-3)
+	Ys, Yinf = clampFraction(Ys), clampFraction(Yinf)
+
+	tr := Ts + (Tinf-Ts)/3
+	yr := Ys + (Yinf-Ys)/3
+	mv, mg := l.molarMass, g.molarMass
+	nv, ng := yr/mv, (1-yr)/mg
+	xv := nv / (nv + ng)
+	m := 1 / (nv + ng)
+
+	cpv, cpg := l.VaporHeatCapacity(tr), g.HeatCapacity(tr)
+	muv, mug := l.VaporViscosity(tr), g.Viscosity(tr)
+	kv, kg := l.VaporConductivity(tr), g.Conductivity(tr)
+	phiVG := wilkePhi(muv, mug, mv, mg)
+	phiGV := wilkePhi(mug, muv, mg, mv)
+	xg := 1 - xv
+	mu := xv*muv/(xv+xg*phiVG) + xg*mug/(xg+xv*phiGV)
+	k := xv*kv/(xv+xg*phiVG) + xg*kg/(xg+xv*phiGV)
+
+	return Film{
+		T:                 tr,
+		VaporMassFraction: yr,
+		VaporMoleFraction: xv,
+		MolarMass:         m,
+		Density:           p * m / (gasConstant * tr),
+		Viscosity:         mu,
+		Conductivity:      k,
+		HeatCapacity:      yr*cpv + (1-yr)*cpg,
+		VaporHeatCapacity: cpv,
+		Diffusivity:       Diffusivity(l, g, tr, p),
+		MeanFreePath:      MeanFreePath(mu, tr, p, m),
+		Warnings:          w,
+	}
+}
+
+// wilkePhi is Wilke's interaction parameter phi_ij (Poling et al. 5th ed.
+// eq. 9-5.14).
+func wilkePhi(mui, muj, mi, mj float64) float64 {
+	a := 1 + math.Sqrt(mui/muj)*math.Sqrt(math.Sqrt(mj/mi))
+	return a * a / math.Sqrt(8*(1+mi/mj))
+}
+
+func positiveOr(v, floor float64) float64 {
+	if math.IsNaN(v) || v < floor {
+		return floor
+	}
+	if math.IsInf(v, 1) {
+		return math.MaxFloat64
+	}
+	return v
+}
+
+func clampFraction(y float64) float64 {
+	if math.IsNaN(y) || y < 0 {
+		return 0
+	}
+	return math.Min(y, 0.999999)
+}
