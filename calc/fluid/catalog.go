@@ -22,6 +22,15 @@ const (
 var builtins = []*Liquid{
 	newWater(),
 	newHeptane(),
+	newIsoOctane(),
+	newDecane(),
+	newDodecane(),
+	newHexadecane(),
+	newEthanol(),
+	newMethanol(),
+	newAcetone(),
+	newKeroseneSurrogate(),
+	newDieselSurrogate(),
 }
 
 // fullerVolume sums the Fuller et al. (1969) atomic diffusion volumes of
@@ -89,7 +98,7 @@ func newHeptane() *Liquid {
 	}
 	l.psat = correlation{"saturation pressure", "DIPPR eq. 101", refPerry2_8 + refReadVia, 182.57, 540.2,
 		dippr101(87.829, -6996.4, -9.8802, 7.2099e-06, 2)}
-	l.sigma = correlation{"surface tension", "Mulero-Cachadiña sum of powers", refMulero + refReadVia, 182.57, 540.13,
+	l.sigma = correlation{"surface tension", "Mulero-Cachadiña sum of powers", refMulero + refReadVia, 183, 540.08,
 		mulero(540.13, []float64{0.07765, -0.02599}, []float64{1.319, 1.6})}
 	l.rho = correlation{"liquid density", "DIPPR eq. 105", refPerry2_32 + refReadVia, 182.57, 540.2,
 		molarToMassDensity(m, dippr105(612.59, 0.26211, 540.2, 0.28141))}
@@ -101,7 +110,7 @@ func newHeptane() *Liquid {
 		perKmolToKg(m, dippr114(540.2, 61.26, 314410, 1824.6, -2547.9))}
 	l.cpVapor = correlation{"vapor heat capacity", "ideal-gas polynomial Cp0/R", refPolingA + refReadVia, 200, 1000,
 		perMass(m, idealGasCp(9.634, 0.004156, 0.00015494, -2.0066e-07, 7.77e-11))}
-	finishOrganic(l, "Perry's Table 2-8 vapor-pressure form")
+	finishOrganic(l)
 	l.constants = []Source{
 		{"molar mass", "C7H16 from IUPAC atomic weights", "REFERENCE-DATA 2.2 [read]"},
 		{"critical temperature, critical pressure", "evaluated data", refIUPACCrit},
@@ -118,7 +127,7 @@ func newHeptane() *Liquid {
 // finishOrganic derives the acentric factor from its definition,
 // omega = -log10(p_s(0.7 Tc)/pc) - 1 (Pitzer et al. 1955), with the
 // liquid's own vapor-pressure correlation, so the constant and the curve agree.
-func finishOrganic(l *Liquid, _ string) {
+func finishOrganic(l *Liquid) {
 	pr := l.psat.eval(0.7*l.tc) / l.pc
 	l.omega = -log10(pr) - 1
 }
