@@ -59,7 +59,7 @@ func (b *Binned) Len() int { return len(b.Number) }
 // axis where size distributions are plotted. The means and quantiles do not
 // use it; they use the class averages described on Binned.
 func (b *Binned) Diameter(i int) float64 {
-	return math.Sqrt(b.Edges[i] * b.Edges[i+1])
+	return geoMean(b.Edges[i], b.Edges[i+1])
 }
 
 // classAveragePow is the class average <D^p> over [lo, hi] for a number
@@ -141,7 +141,7 @@ func (b *Binned) MeanDiameter(p, q float64) (float64, error) {
 	if n == 0 || len(b.Edges) != n+1 {
 		return 0, &valid.FieldError{Field: "distribution.edges_m", Message: "the distribution has no classes"}
 	}
-	ref := math.Sqrt(b.Edges[0] * b.Edges[n])
+	ref := geoMean(b.Edges[0], b.Edges[n])
 	var mp, mq, mlog float64
 	for i, f := range b.Number {
 		if f == 0 {
@@ -335,7 +335,7 @@ func FromFractions(edges, fraction []float64, basis Basis) (*Binned, error) {
 // fillBases sets Number and Volume from fractions of ISO type r.
 func (b *Binned) fillBases(given []float64, r float64) error {
 	n := len(given)
-	ref := math.Sqrt(b.Edges[0] * b.Edges[n])
+	ref := geoMean(b.Edges[0], b.Edges[n])
 	num := make([]float64, n)
 	if r == 0 {
 		copy(num, given)

@@ -89,7 +89,8 @@ func Edges(dmin, dmax float64, bins int, spacing Spacing) ([]float64, error) {
 	edges := make([]float64, bins+1)
 	switch spacing {
 	case SpacingLog:
-		l0, h := math.Log(dmin), math.Log(dmax/dmin)/float64(bins)
+		l0 := math.Log(dmin)
+		h := (math.Log(dmax) - l0) / float64(bins)
 		for i := range edges {
 			edges[i] = math.Exp(l0 + float64(i)*h)
 		}
@@ -134,7 +135,7 @@ func Cut(m Model, dmin, dmax float64, bins int, spacing Spacing) (*Binned, error
 	for i := range bins {
 		b.Volume[i] = math.Max(0, volumeBetween(m, edges[i], edges[i+1]))
 	}
-	ref := math.Sqrt(dmin * dmax)
+	ref := geoMean(dmin, dmax)
 	for i, v := range b.Volume {
 		b.Number[i] = v / classAveragePow(edges[i]/ref, edges[i+1]/ref, 3)
 	}
@@ -159,3 +160,6 @@ func checkOrders(p, q float64) error {
 	}
 	return valid.Finite("distribution.q", q)
 }
+
+// geoMean is sqrt(a·b) without overflow of the product.
+func geoMean(a, b float64) float64 { return math.Exp((math.Log(a) + math.Log(b)) / 2) }
