@@ -1,6 +1,7 @@
 package evap
 
 import (
+	"errors"
 	"math"
 
 	"fogbench/calc/valid"
@@ -183,11 +184,22 @@ func newRateFunc(c *Conditions, fixedTs, tb float64) *rateFunc {
 	return &rateFunc{c: c, fixedTs: fixedTs, tb: tb}
 }
 
+// minSteadyDiameter is the smallest diameter for which rateFunc solves the
+// steady temperature; smaller drops (where the Kelvin equation has lost its
+// meaning) take the temperature of a drop this size, or of the smallest
+// larger size whose heat balance has a root.
+const minSteadyDiameter = 2e-9
+
 func (r *rateFunc) temperature(d float64) (float64, error) {
 	if r.fixedTs > 0 {
 		return r.fixedTs, nil
 	}
-	t, err := r.c.steadyTemperature(d, r.tb, r.guess)
+	dEff := math.Max(d, minSteadyDiameter)
+	t, err := r.c.steadyTemperature(dEff, r.tb, r.guess)
+	for i := 0; err != nil && !errors.Is(err, ErrBoiling) && i < 20 && dEff < 1e-6; i++ {
+		dEff *= 2
+		t, err = r.c.steadyTemperature(dEff, r.tb, r.guess)
+	}
 	if err != nil && t == r.tb && t > 0 {
 		// Clamped at the boiling point: keep going just below it.
 		r.flags |= warnSurfaceCapped

@@ -186,8 +186,8 @@ func (c *Conditions) steadyTemperature(d, tHi, guess float64) (float64, error) {
 		for {
 			t := hi - step
 			if t < floor {
-				return 0, valid.Errorf("gas.temperature_k", c.GasTemperature,
-					"no steady drop temperature found between %s and %s K", valid.FormatValue(floor), valid.FormatValue(t0))
+				return 0, valid.Errorf("drop.diameter_m", d,
+					"has no steady temperature between %s and %s K (below a few nm the curvature raise exceeds what any heat balance can carry)", valid.FormatValue(floor), valid.FormatValue(t0))
 			}
 			ft := h(t)
 			if evalErr != nil {

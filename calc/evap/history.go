@@ -1,0 +1,377 @@
+package evap
+
+import (
+	"fmt"
+	"math"
+
+	"fogbench/calc/valid"
+)
+
+// HistoryOptions control History.
+type HistoryOptions struct {
+	// SurfaceTemperature fixes T_s in K for every drop; zero means the
+	// steady temperature of each diameter. Not used with Transient.
+	SurfaceTemperature float64
+	// Transient heats each drop from InjectionTemperature (K) as a
+	// uniform-temperature sphere, m c_p,L dT_s/dt = Q − ṁ L, until it
+	// reaches its steady temperature; from there it follows the steady path.
+	Transient            bool
+	InjectionTemperature float64
+	// MaxTime ends the time grid, s; zero means the time at which 99 % of the
+	// mass has evaporated.
+	MaxTime float64
+	// Steps is the number of log-spaced time points after t = 0; zero means 200.
+	Steps int
+}
+
+// History is the evaporation of a spray given as size bins.
+type History struct {
+	T                      []float64 // time, s; T[0] = 0
+	EvaporatedMassFraction []float64 // evaporated mass over initial mass
+	D32                    []float64 // Sauter mean diameter of the remaining drops, m (0 once all are gone)
+	Dv50                   []float64 // volume median diameter of the remaining drops, m (0 once all are gone)
+	// T50, T90, T99 are the times at which 50, 90 and 99 % of the mass has
+	// evaporated, s; +Inf (with a warning) when never reached.
+	T50, T90, T99 float64
+	Warnings      []string
+}
+
+// Distance converts the time grid into distance travelled at a constant
+// spray speed u (m/s): x = u t, in m.
+func (h History) Distance(u float64) []float64 {
+	x := make([]float64, len(h.T))
+	for i, t := range h.T {
+		x[i] = u * t
+	}
+	return x
+}
+
+// History follows every size bin of a spray along its own d(t) and sums the
+// spray: the evaporated mass fraction 1 − Σ w_i m_i(t)/m_i(0), the Sauter
+// mean D32 = Σ n_i d_i³/Σ n_i d_i² with n_i ∝ w_i/d0_i³ and the volume
+// median Dv50 of the remaining drops. diameters (m) are the bins'
+// representative diameters, strictly increasing; volumeFractions their
+// volume (mass) fractions, normalised here. Drops do not interact and the
+// gas does not change (dilute spray).
+//
+// Without Transient all drops of the same conditions share one shrinkage
+// curve: the table G(d) of remaining evaporation time is built once by
+// cumulative Gauss–Legendre quadrature, and each bin's d(t) solves
+// G(d) = G(d0) − t by interpolation, O(bins × steps). Dv50 treats each bin
+// as a point mass at its current diameter with the cumulative volume at
+// bin i taken as (Σ_{j<i} v_j + v_i/2)/V, interpolated linearly in d.
+// Bins that would grow (supersaturated far field, d0 at or above the Kelvin
+// equilibrium size) are held at their initial size with a warning.
+func (c *Conditions) History(diameters, volumeFractions []float64, opts HistoryOptions) (History, error) {
+	var h History
+	if err := c.Validate(); err != nil {
+		return h, err
+	}
+	w, err := checkBins(diameters, volumeFractions)
+	if err != nil {
+		return h, err
+	}
+	steps := opts.Steps
+	if steps == 0 {
+		steps = 200
+	}
+	if steps < 1 || steps > 1000000 {
+		return h, valid.Errorf("history.steps", float64(steps), "must be between 1 and 1000000")
+	}
+	if err := valid.NonNegative("history.max_time_s", opts.MaxTime); err != nil {
+		return h, err
+	}
+	tb, _, err := c.boilingTemperature()
+	if err != nil {
+		return h, err
+	}
+	if opts.SurfaceTemperature != 0 {
+		if opts.Transient {
+			return h, valid.Errorf("history.surface_temperature_k", opts.SurfaceTemperature, "cannot be fixed when transient heating is on")
+		}
+		if err := valid.Between("history.surface_temperature_k", opts.SurfaceTemperature, 1, tb, "K (the boiling point)"); err != nil {
+			return h, err
+		}
+	}
+	if opts.Transient {
+		if err := valid.Between("history.injection_temperature_k", opts.InjectionTemperature, 1, tb, "K (the boiling point)"); err != nil {
+			return h, err
+		}
+	}
+
+	topFactor := 1.0
+	if opts.Transient {
+		// Cold drops may first grow by condensation before joining the table.
+		topFactor = 1.5
+	}
+	sp, err := c.newSprayPaths(diameters, w, opts.SurfaceTemperature, tb, topFactor)
+	if err != nil {
+		return h, err
+	}
+	if opts.Transient {
+		if err := sp.addTransient(opts.InjectionTemperature, opts.MaxTime); err != nil {
+			return h, err
+		}
+	}
+	h.Warnings = warningText(sp.rate.flags &^ warnKelvinSmall)
+	if sp.heldWeight > 0 {
+		h.Warnings = append(h.Warnings, fmt.Sprintf("%.3g %% of the spray volume is in drops that do not evaporate (at or above the Kelvin equilibrium size, or not within the time considered); without transient heating they are held at their initial size (growth is not modelled)", 100*sp.heldWeight))
+	}
+	h.T50, h.T90, h.T99 = sp.crossing(0.5), sp.crossing(0.9), sp.crossing(0.99)
+	for _, x := range []struct {
+		t    float64
+		name string
+	}{{h.T50, "50"}, {h.T90, "90"}, {h.T99, "99"}} {
+		if math.IsInf(x.t, 1) {
+			h.Warnings = append(h.Warnings, "the spray never reaches "+x.name+" % evaporated; the time is reported as +Inf")
+		}
+	}
+	tEnd := opts.MaxTime
+	if tEnd == 0 {
+		tEnd = h.T99
+		if math.IsInf(tEnd, 1) {
+			return h, valid.Errorf("history.max_time_s", 0, "is needed: the spray never reaches 99 %% evaporated under these conditions")
+		}
+	}
+	tFirst := math.Max(tEnd*1e-6, math.Min(tEnd*1e-3, 0.05*sp.shortestLife))
+	h.T = make([]float64, steps+1)
+	ratio := math.Log(tEnd / tFirst)
+	for k := 1; k <= steps; k++ {
+		h.T[k] = tFirst * math.Exp(ratio*float64(k-1)/float64(max(steps-1, 1)))
+	}
+	if steps == 1 {
+		h.T[1] = tEnd
+	}
+	h.T[steps] = tEnd
+	h.EvaporatedMassFraction = make([]float64, steps+1)
+	h.D32 = make([]float64, steps+1)
+	h.Dv50 = make([]float64, steps+1)
+	sp.sweep(h.T, h.EvaporatedMassFraction, h.D32, h.Dv50)
+	return h, nil
+}
+
+func checkBins(d, w []float64) ([]float64, error) {
+	if len(d) == 0 {
+		return nil, &valid.FieldError{Field: "history.diameters_m", Message: "no size bins given"}
+	}
+	if len(w) != len(d) {
+		return nil, valid.Errorf("history.volume_fractions", float64(len(w)), "must have one value per diameter (%d)", len(d))
+	}
+	sum := 0.0
+	for i := range d {
+		if err := valid.Positive(fmt.Sprintf("history.diameters_m[%d]", i), d[i]); err != nil {
+			return nil, err
+		}
+		if i > 0 && !(d[i] > d[i-1]) {
+			return nil, valid.Errorf(fmt.Sprintf("history.diameters_m[%d]", i), d[i], "must be larger than the previous bin (%s)", valid.FormatValue(d[i-1]))
+		}
+		if err := valid.NonNegative(fmt.Sprintf("history.volume_fractions[%d]", i), w[i]); err != nil {
+			return nil, err
+		}
+		sum += w[i]
+	}
+	if !(sum > 0) || math.IsInf(sum, 0) {
+		return nil, valid.Errorf("history.volume_fractions", sum, "must add up to a positive finite total")
+	}
+	out := make([]float64, len(w))
+	for i := range w {
+		out[i] = w[i] / sum
+	}
+	return out, nil
+}
+
+// sprayPaths holds every bin's path: either the shared steady table from
+// d0, or a transient start followed by the table.
+type sprayPaths struct {
+	c            *Conditions
+	rate         *rateFunc
+	table        *shrinkTable
+	d0, w        []float64
+	n32          []float64 // number weights w/d0³
+	life         []float64 // total evaporation time per bin, +Inf when held
+	g0           []float64 // G at the point where the bin joins the table
+	join         []float64 // time at which the bin joins the table (0 without transient)
+	scale        []float64 // remaining mass fraction when it joins
+	dJoin        []float64
+	tr           []*transientPath
+	heldWeight   float64
+	shortestLife float64
+	cursor       []int
+	dNow         []float64
+}
+
+func (c *Conditions) newSprayPaths(d0, w []float64, fixedTs, tb, topFactor float64) (*sprayPaths, error) {
+	n := len(d0)
+	sp := &sprayPaths{c: c, rate: newRateFunc(c, fixedTs, tb), d0: d0, w: w,
+		n32: make([]float64, n), life: make([]float64, n), g0: make([]float64, n),
+		join: make([]float64, n), scale: make([]float64, n), dJoin: make([]float64, n),
+		cursor: make([]int, n), dNow: make([]float64, n), shortestLife: math.Inf(1)}
+	// Bins at or above the equilibrium size do not evaporate; ṁ(d) falls
+	// with d, so they are the largest ones.
+	top := n - 1
+	for ; top >= 0; top-- {
+		m, _, err := sp.rate.at(d0[top])
+		if err != nil {
+			return nil, err
+		}
+		if m > 0 {
+			break
+		}
+	}
+	for i := range d0 {
+		sp.n32[i] = w[i] / (d0[i] * d0[i] * d0[i])
+		sp.scale[i], sp.dJoin[i] = 1, d0[i]
+		if i > top {
+			sp.life[i] = math.Inf(1)
+			sp.heldWeight += w[i]
+		}
+	}
+	if top < 0 {
+		return sp, nil
+	}
+	sp.rate.guess = 0
+	dTop := d0[top] * topFactor
+	if top < n-1 {
+		dTop = math.Min(dTop, d0[top+1])
+	}
+	table, ok, err := buildShrinkTable(sp.rate, d0[0]*1e-3, dTop)
+	if err != nil {
+		return nil, err
+	}
+	if !ok {
+		return nil, fmt.Errorf("evap: the evaporation rate changes sign below %s m; the shrinkage table cannot be built", valid.FormatValue(d0[top]))
+	}
+	sp.table = table
+	for i := 0; i <= top; i++ {
+		sp.g0[i] = table.evaporationTime(d0[i])
+		sp.life[i] = sp.g0[i]
+		sp.shortestLife = math.Min(sp.shortestLife, sp.life[i])
+	}
+	return sp, nil
+}
+
+// state returns bin i's diameter (m) and remaining mass fraction at time t.
+func (sp *sprayPaths) state(i int, t float64, cursor *int) (d, frac float64) {
+	if math.IsInf(sp.life[i], 1) && sp.tr == nil {
+		return sp.d0[i], 1
+	}
+	if sp.tr != nil && sp.tr[i] != nil && t < sp.join[i] {
+		return sp.tr[i].at(t)
+	}
+	if math.IsInf(sp.g0[i], 1) || sp.table == nil {
+		return sp.dJoin[i], sp.scale[i]
+	}
+	d = sp.table.diameter(sp.g0[i]-(t-sp.join[i]), cursor)
+	r := d / sp.dJoin[i]
+	return d, sp.scale[i] * r * r * r
+}
+
+// remaining returns the remaining mass fraction of the spray at time t.
+func (sp *sprayPaths) remaining(t float64) float64 {
+	m := 0.0
+	for i := range sp.d0 {
+		cur := -1
+		_, f := sp.state(i, t, &cur)
+		m += sp.w[i] * f
+	}
+	return m
+}
+
+// crossing returns the first time at which the evaporated fraction reaches
+// x, or +Inf. Without transient heating the remaining mass falls
+// monotonically and Brent's method on [0, longest life] finds it; with it
+// a log-spaced scan brackets the first crossing first.
+func (sp *sprayPaths) crossing(x float64) float64 {
+	f := func(t float64) float64 { return sp.remaining(t) - (1 - x) }
+	tMax := 0.0
+	for i, l := range sp.life {
+		if sp.w[i] > 0 && !math.IsInf(l, 1) {
+			tMax = math.Max(tMax, l)
+		}
+	}
+	if tMax == 0 {
+		return math.Inf(1)
+	}
+	fEnd := f(tMax)
+	if fEnd > 0 {
+		return math.Inf(1)
+	}
+	lo, hi, flo := 0.0, tMax, f(0)
+	if sp.tr != nil {
+		// Scan for the first sign change.
+		const n = 400
+		t0 := math.Min(sp.shortestLife, tMax) * 1e-3
+		prev, fprev := 0.0, flo
+		for k := 0; k <= n; k++ {
+			t := t0 * math.Pow(tMax/t0, float64(k)/n)
+			ft := f(t)
+			if ft <= 0 {
+				lo, hi, flo, fEnd = prev, t, fprev, ft
+				break
+			}
+			prev, fprev = t, ft
+		}
+	}
+	t, err := brent(f, lo, hi, flo, fEnd, 1e-12*tMax)
+	if err != nil {
+		return math.Inf(1)
+	}
+	return t
+}
+
+// sweep fills the spray statistics on the increasing time grid ts.
+func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) {
+	n := len(sp.d0)
+	vol := make([]float64, n)
+	for i := range sp.cursor {
+		sp.cursor[i] = -1
+	}
+	for k, t := range ts {
+		rem, s3, s2 := 0.0, 0.0, 0.0
+		for i := 0; i < n; i++ {
+			d, f := sp.state(i, t, &sp.cursor[i])
+			v := sp.w[i] * f
+			vol[i] = v
+			rem += v
+			if d > 0 {
+				// Number weight is conserved: n_i d³ scales with the
+				// remaining mass, and d² follows from d.
+				s3 += v
+				s2 += v / d
+			}
+			sp.dNow[i] = d
+		}
+		evap[k] = math.Max(0, 1-rem)
+		if s2 > 0 {
+			d32[k] = s3 / s2
+		}
+		dv50[k] = volumeMedian(sp.dNow, vol, rem)
+	}
+}
+
+// volumeMedian returns the diameter below which half of the volume vol
+// (of total v) lies, treating each bin as a point at d with the cumulative
+// volume at bin i taken at its midpoint; bins are in increasing d.
+func volumeMedian(d, vol []float64, v float64) float64 {
+	if !(v > 0) {
+		return 0
+	}
+	half := 0.5 * v
+	cum := 0.0
+	prevD, prevC := 0.0, -1.0
+	for i := range d {
+		if vol[i] <= 0 {
+			continue
+		}
+		c := cum + 0.5*vol[i]
+		if c >= half {
+			if prevC < 0 {
+				return d[i]
+			}
+			return prevD + (d[i]-prevD)*(half-prevC)/(c-prevC)
+		}
+		prevD, prevC = d[i], c
+		cum += vol[i]
+	}
+	return prevD
+}
