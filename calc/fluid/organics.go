@@ -149,7 +149,7 @@ func newEthanol() *Liquid {
 	return newOrganic(organicData{
 		id: "ethanol", name: "Ethanol", formula: "C2H6O", cas: "64-17-5",
 		m: 46.069e-3, tc: 514.0, pc: 6.137e6, tb: 351.44, tmelt: 159.05, vc: 167e-6, dipole: 1.7, kappa: 0.174823,
-		c: 2, h: 6, o: 1, constSrc: append(srcIUPACConstants, Source{"Chung association factor", "kappa = 0.174823", "Chung et al. (1988), Poling et al. 5th ed. Table 9-? (from memory)"}),
+		c: 2, h: 6, o: 1, constSrc: append(srcIUPACConstants, Source{"Chung association factor", "kappa = 0.174823", "Chung et al. (1988), Poling et al. 5th ed. section 9-4 (from memory)"}),
 		psat:      [7]float64{73.304, -7122.3, -7.1424, 2.8853e-06, 2, 159.05, 514},
 		sigmaForm: "mulero", sigma: []float64{513.9, 0.05, 0.952}, sigmaT: [2]float64{180.12, 513.15},
 		rho:  [6]float64{1628.8, 0.27469, 514, 0.23178, 159.05, 514},
@@ -164,7 +164,7 @@ func newMethanol() *Liquid {
 	return newOrganic(organicData{
 		id: "methanol", name: "Methanol", formula: "CH4O", cas: "67-56-1",
 		m: 32.042e-3, tc: 512.5, pc: 8.084e6, tb: 337.75, tmelt: 175.47, vc: 118e-6, dipole: 1.7, kappa: 0.215175,
-		c: 1, h: 4, o: 1, constSrc: append(srcIUPACConstants, Source{"Chung association factor", "kappa = 0.215175", "Chung et al. (1988), Poling et al. 5th ed. (from memory)"}),
+		c: 1, h: 4, o: 1, constSrc: append(srcIUPACConstants, Source{"Chung association factor", "kappa = 0.215175", "Chung et al. (1988), Poling et al. 5th ed. section 9-4 (from memory)"}),
 		psat:      [7]float64{82.718, -6904.5, -8.8622, 7.4664e-06, 2, 175.47, 512.5},
 		sigmaForm: "mulero", sigma: []float64{513.38, 0.22421, 1.3355, -0.21408, 1.677, 0.083233, 4.4402}, sigmaT: [2]float64{175.61, 508.15},
 		rho:  [6]float64{2326.7, 0.27073, 512.5, 0.24713, 175.47, 512.5},
