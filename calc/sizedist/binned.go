@@ -72,6 +72,23 @@ func (b *Binned) Diameter(i int) float64 {
 // precision: <D^p> = lo^p · expm1((p+1) ln r) / ((p+1) expm1(ln r)).
 // Diameters in any unit; the result is in that unit to the power p.
 func classAveragePow(lo, hi, p float64) float64 {
+	// Small non-negative integer orders (all the Summary needs) use
+	// (hi^(p+1) − lo^(p+1))/(hi − lo) = Σ_k hi^k lo^(p−k): no cancellation
+	// and no transcendental calls.
+	if p >= 0 && p <= 8 && p == math.Trunc(p) {
+		n := int(p)
+		var sum, hk float64 = 0, 1
+		lk := make([]float64, 0, 9)
+		lk = append(lk, 1)
+		for k := 1; k <= n; k++ {
+			lk = append(lk, lk[k-1]*lo)
+		}
+		for k := 0; k <= n; k++ {
+			sum += hk * lk[n-k]
+			hk *= hi
+		}
+		return sum / float64(n+1)
+	}
 	l := math.Log(hi / lo)
 	if l == 0 {
 		return math.Pow(lo, p)

@@ -41,16 +41,6 @@ func volumeSF(m Model, D float64) float64 {
 	return 1 - m.VolumeCDF(D)
 }
 
-// volumeBetween is Q3(hi) − Q3(lo), taken from the survival function in the
-// upper half of the distribution so that thin upper-tail classes keep their
-// digits.
-func volumeBetween(m Model, lo, hi float64) float64 {
-	if m.VolumeCDF(lo) > 0.5 {
-		return volumeSF(m, lo) - volumeSF(m, hi)
-	}
-	return m.VolumeCDF(hi) - m.VolumeCDF(lo)
-}
-
 // Spacing is how Cut places class edges between dmin and dmax.
 type Spacing string
 
@@ -132,8 +122,23 @@ func Cut(m Model, dmin, dmax float64, bins int, spacing Spacing) (*Binned, error
 	b := &Binned{Edges: edges, Number: make([]float64, bins), Volume: make([]float64, bins)}
 	b.TruncatedBelow = m.VolumeCDF(dmin)
 	b.TruncatedAbove = volumeSF(m, dmax)
+	// Q3 and 1 − Q3 at each edge once; a class in the upper half takes the
+	// difference of survival values so thin upper-tail classes keep their
+	// digits.
+	cdf := make([]float64, bins+1)
+	sf := make([]float64, bins+1)
+	for i, e := range edges {
+		cdf[i] = m.VolumeCDF(e)
+		if cdf[i] > 0.5 {
+			sf[i] = volumeSF(m, e)
+		}
+	}
 	for i := range bins {
-		b.Volume[i] = math.Max(0, volumeBetween(m, edges[i], edges[i+1]))
+		v := cdf[i+1] - cdf[i]
+		if cdf[i] > 0.5 {
+			v = sf[i] - sf[i+1]
+		}
+		b.Volume[i] = math.Max(0, v)
 	}
 	ref := geoMean(dmin, dmax)
 	for i, v := range b.Volume {
