@@ -67,6 +67,13 @@ func input(name string, required bool) InputInfo {
 	return in
 }
 
+// inputTypical is input with a family-specific typical value.
+func inputTypical(name string, required bool, typical float64) InputInfo {
+	in := input(name, required)
+	in.Typical = typical
+	return in
+}
+
 // correlation is one SMD correlation with its evaluation.
 type correlation struct {
 	info CorrelationInfo
@@ -470,8 +477,8 @@ func airAssistFamily() *family {
 			Description: "A pressure atomizer helped by a small flow of high-velocity air; the liquid flow follows " +
 				"its own flow number or discharge coefficient.",
 			Inputs: []InputInfo{
-				input(inDeltaP, true), input(inOrificeD, true), input(inAirVelocity, true), input(inALR, true),
-				input(inMassFlow, false), input(inFlowNumber, false), input(inCD, false),
+				inputTypical(inDeltaP, true, 3e5), input(inOrificeD, true), inputTypical(inAirVelocity, true, 150),
+				inputTypical(inALR, true, 0.3), input(inMassFlow, false), input(inFlowNumber, false), input(inCD, false),
 			},
 			DefaultCorrelation:  "nukiyama-tanasawa-1939",
 			RosinRammlerQ:       2.3,
@@ -564,7 +571,7 @@ func effervescentFamily() *family {
 			Description: "Gas bubbled into the liquid upstream of the orifice; only the flow definitions are given, " +
 				"based on the liquid flow.",
 			Inputs: []InputInfo{
-				input(inDeltaP, true), input(inOrificeD, true), input(inALR, true),
+				inputTypical(inDeltaP, true, 5e5), input(inOrificeD, true), inputTypical(inALR, true, 0.05),
 				input(inMassFlow, false), input(inFlowNumber, false), input(inCD, false),
 			},
 			SMDStatus:           noEffervescentSMD,

@@ -217,7 +217,7 @@ func resolvePlainOrifice(pt *point) error {
 		return err
 	}
 	usedLength := !pt.has(inMassFlow) && !pt.has(inFlowNumber) && !pt.has(inCD)
-	if pt.has(inOrificeL) && !usedLength {
+	if pt.has(inOrificeL) && !usedLength && lichtarowicz > 0 {
 		pt.notef("for comparison, Lichtarowicz, Duggins & Markland (1965) give C_D,max = %.4f for l0/d0 = %.3g (form from memory)",
 			lichtarowicz, pt.in[inOrificeL]/pt.in[inOrificeD])
 	}

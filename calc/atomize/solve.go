@@ -179,7 +179,15 @@ func Solve(familyID, correlationID string, inputs map[string]float64, props Prop
 	}
 	sol.Value = math.Exp(u)
 	in[unknown] = sol.Value
-	res, err := f.resultAt(in, props, c)
+	rc := c
+	if !smdTarget && c != nil {
+		// A mass-flow target does not need the chosen correlation; if it
+		// cannot be evaluated here, report the others.
+		if pt, err := newPoint(f, in, props); err == nil && c.applies(pt) != nil {
+			rc = nil
+		}
+	}
+	res, err := f.resultAt(in, props, rc)
 	if err != nil {
 		return Solution{}, err
 	}
