@@ -199,3 +199,9 @@ func (c *Case) Normalize() {
 	}
 	c.Name = strings.TrimSpace(c.Name)
 }
+
+// IsArray reports whether a case file holds a JSON array of cases.
+func IsArray(data []byte) bool {
+	t := bytes.TrimSpace(bytes.TrimPrefix(data, []byte("\xef\xbb\xbf")))
+	return len(t) > 0 && t[0] == '['
+}

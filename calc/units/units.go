@@ -7,6 +7,7 @@ package units
 
 import (
 	"fmt"
+	"math"
 	"sort"
 	"strings"
 )
@@ -31,11 +32,38 @@ type Unit struct {
 	Offset float64
 }
 
-// ToSI converts a value in this unit to SI.
-func (u Unit) ToSI(v float64) float64 { return v*u.Scale + u.Offset }
+// ToSI converts a value in this unit to SI. Decimal sub-units divide by
+// their exact inverse, so 60 µm becomes exactly the double nearest 6e-5
+// rather than 60 × 1e-6 = 5.9999999999999995e-05.
+func (u Unit) ToSI(v float64) float64 {
+	if inv, ok := exactInverse(u.Scale); ok {
+		return v/inv + u.Offset
+	}
+	return v*u.Scale + u.Offset
+}
 
 // FromSI converts an SI value to this unit.
-func (u Unit) FromSI(v float64) float64 { return (v - u.Offset) / u.Scale }
+func (u Unit) FromSI(v float64) float64 {
+	if inv, ok := exactInverse(u.Scale); ok {
+		return (v - u.Offset) * inv
+	}
+	return (v - u.Offset) / u.Scale
+}
+
+// exactInverse reports 1/s when s is the reciprocal of a whole power of ten
+// (1e-3, 1e-6, 1e-9).
+func exactInverse(s float64) (float64, bool) {
+	if s >= 1 {
+		return 0, false
+	}
+	inv := math.Round(1 / s)
+	for p := 10.0; p <= 1e12; p *= 10 {
+		if inv == p && 1/p == s {
+			return p, true
+		}
+	}
+	return 0, false
+}
 
 // Exact definitions (NIST SP 811 B.8 gives each as exact unless noted).
 const (

@@ -92,3 +92,26 @@ func TestRoundTripAndAliases(t *testing.T) {
 		t.Error("defaults changed")
 	}
 }
+
+// Typed values convert to the nearest double of the SI value, so a stored
+// case holds 6e-05 m for 60 µm, not 5.9999999999999995e-05.
+func TestDecimalPrefixesAreExact(t *testing.T) {
+	cases := []struct {
+		sym  string
+		kind Kind
+		v    float64
+		si   float64
+	}{
+		{"µm", Length, 60, 6e-5},
+		{"µm", Length, 3, 3e-6},
+		{"mm", Length, 0.7, 7e-4},
+		{"nm", Length, 10, 1e-8},
+		{"ms", Time, 3, 3e-3},
+		{"g/s", MassFlow, 7, 7e-3},
+	}
+	for _, c := range cases {
+		if got := MustLookup(c.kind, c.sym).ToSI(c.v); got != c.si {
+			t.Errorf("%v %s = %v, want %v", c.v, c.sym, got, c.si)
+		}
+	}
+}

@@ -1,0 +1,517 @@
+package calc
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"strings"
+
+	"fogbench/calc/atomize"
+	"fogbench/calc/evap"
+	"fogbench/calc/fluid"
+	"fogbench/calc/phys"
+	"fogbench/calc/sizedist"
+	"fogbench/calc/valid"
+)
+
+// Limits on what a case may ask for. They bound the work one request can
+// cause and keep the property correlations near their ranges.
+const (
+	MaxBins          = 2000
+	MinPressurePa    = 1e3   // 10 mbar
+	MaxPressurePa    = 2e7   // 200 bar: the ideal-gas film is far off beyond
+	MinGasTempK      = 200.0 // K
+	MaxGasTempK      = 2500.0
+	MaxRelVelocityMS = 500.0
+	defaultBins      = 40
+)
+
+// setup is a validated case with its liquid, gas and drop-size classes.
+type setup struct {
+	c        Case
+	liquid   *fluid.Liquid
+	gas      *fluid.Gas
+	binned   *sizedist.Binned
+	atomizer *atomize.Result
+	xInf     float64 // far-field vapor mole fraction
+	warnings []string
+}
+
+// Validate checks a case without evaluating its evaporation: every field
+// error is returned at once as valid.Errors.
+func Validate(c Case) error {
+	_, err := prepare(c)
+	return err
+}
+
+func prepare(c Case) (*setup, error) {
+	c.Normalize()
+	var errs valid.Errors
+	add := func(err error) {
+		if err != nil && !errs.Add(err) {
+			errs = append(errs, &valid.FieldError{Field: "case", Message: err.Error()})
+		}
+	}
+	s := &setup{c: c}
+	if c.Format != CaseFormat {
+		add(&valid.FieldError{Field: "format", Value: c.Format, Message: fmt.Sprintf("must be %q", CaseFormat)})
+	}
+	if c.Name == "" {
+		add(&valid.FieldError{Field: "name", Message: "give the case a name"})
+	} else if len(c.Name) > 200 {
+		add(&valid.FieldError{Field: "name", Message: "must be at most 200 characters"})
+	}
+	l, err := fluid.Lookup(c.Fluid)
+	add(err)
+	s.liquid = l
+	g, err := fluid.LookupGas(c.Gas.ID)
+	add(err)
+	s.gas = g
+
+	add(valid.Between("gas.pressure_pa", c.Gas.PressurePa, MinPressurePa, MaxPressurePa, "Pa"))
+	add(valid.Between("gas.temperature_k", c.Gas.TemperatureK, MinGasTempK, MaxGasTempK, "K"))
+	add(valid.Between("gas.relative_velocity_m_s", c.Gas.RelativeVelocityMS, 0, MaxRelVelocityMS, "m/s"))
+	if c.LiquidTemperatureK != nil && l != nil {
+		w, err := l.Check(*c.LiquidTemperatureK)
+		add(err)
+		s.warnings = append(s.warnings, w...)
+	}
+	switch c.Heating {
+	case "", "steady":
+	case "transient":
+		if c.InjectionTemperatureK == nil {
+			add(&valid.FieldError{Field: "injection_temperature_k", Message: `is needed with "heating":"transient"`})
+		} else if l != nil {
+			_, err := l.Check(*c.InjectionTemperatureK)
+			add(err)
+		}
+	default:
+		add(&valid.FieldError{Field: "heating", Value: c.Heating, Message: `must be "steady" or "transient"`})
+	}
+	if g != nil {
+		w, err := g.Check(c.Gas.TemperatureK, c.Gas.PressurePa)
+		add(err)
+		s.warnings = append(s.warnings, w...)
+	}
+	if l != nil && len(errs) == 0 {
+		x, err := ambientVapor(c.Gas, l)
+		add(err)
+		s.xInf = x
+	}
+	add(checkEvaporation(c.Evaporation))
+	if l != nil && g != nil && len(errs) == 0 {
+		b, at, w, err := distribution(c, l, g)
+		add(err)
+		s.binned, s.atomizer = b, at
+		s.warnings = append(s.warnings, w...)
+	}
+	if err := errs.Err(); err != nil {
+		return nil, err
+	}
+	return s, nil
+}
+
+func checkEvaporation(e Evaporation) error {
+	var errs valid.Errors
+	switch e.Convection {
+	case "", evap.ConvectionRanzMarshall, evap.ConvectionAbramzonSirignano, evap.ConvectionNone:
+	default:
+		errs = append(errs, &valid.FieldError{Field: "evaporation.convection", Value: e.Convection,
+			Message: `must be "ranz-marshall", "abramzon-sirignano" or "none"`})
+	}
+	if e.AccommodationCoef != 0 {
+		errs.Add(valid.Between("evaporation.accommodation_coefficient", e.AccommodationCoef, 1e-4, 1, ""))
+	}
+	errs.Add(valid.NonNegative("evaporation.spray_velocity_m_s", e.SprayVelocityMS))
+	errs.Add(valid.NonNegative("evaporation.mass_flow_kg_s", e.MassFlowKgS))
+	errs.Add(valid.NonNegative("evaporation.max_time_s", e.MaxTimeS))
+	return errs.Err()
+}
+
+// ambientVapor turns whichever way the case gives the far-field vapor into
+// a mole fraction.
+func ambientVapor(g Gas, l *fluid.Liquid) (float64, error) {
+	given := 0
+	for _, p := range []*float64{g.VaporMoleFraction, g.VaporPartialPressurePa, g.RelativeHumidity} {
+		if p != nil {
+			given++
+		}
+	}
+	if given > 1 {
+		return 0, &valid.FieldError{Field: "gas.vapor_mole_fraction", Message: "give the ambient vapor one way only: mole fraction, partial pressure or relative humidity"}
+	}
+	switch {
+	case g.VaporMoleFraction != nil:
+		x := *g.VaporMoleFraction
+		if err := valid.Finite("gas.vapor_mole_fraction", x); err != nil {
+			return 0, err
+		}
+		if x < 0 || x >= 1 {
+			return 0, valid.Errorf("gas.vapor_mole_fraction", x, "must be at least 0 and below 1")
+		}
+		return x, nil
+	case g.VaporPartialPressurePa != nil:
+		if err := valid.NonNegative("gas.vapor_partial_pressure_pa", *g.VaporPartialPressurePa); err != nil {
+			return 0, err
+		}
+		x, err := fluid.VaporMoleFractionFromPartialPressure(*g.VaporPartialPressurePa, g.PressurePa)
+		if err != nil {
+			return 0, renameField(err, "gas.vapor_partial_pressure_pa")
+		}
+		return x, nil
+	case g.RelativeHumidity != nil:
+		if err := valid.Between("gas.relative_humidity", *g.RelativeHumidity, 0, 10, "(fraction; 1 = saturated)"); err != nil {
+			return 0, err
+		}
+		x, err := fluid.VaporMoleFractionFromRelativeHumidity(l, *g.RelativeHumidity, g.TemperatureK, g.PressurePa)
+		if err != nil {
+			return 0, renameField(err, "gas.relative_humidity")
+		}
+		return x, nil
+	}
+	return 0, nil
+}
+
+// renameField puts a helper's field error on the case-file field the user
+// typed.
+func renameField(err error, field string) error {
+	var fe *valid.FieldError
+	if errors.As(err, &fe) {
+		return &valid.FieldError{Field: field, Value: fe.Value, Message: fe.Message}
+	}
+	return &valid.FieldError{Field: field, Message: err.Error()}
+}
+
+// distribution builds the drop-size classes of a case.
+func distribution(c Case, l *fluid.Liquid, g *fluid.Gas) (*sizedist.Binned, *atomize.Result, []string, error) {
+	d := c.Distribution
+	if d.Model == "bins" {
+		b, err := sizedist.FromFractions(d.EdgesM, d.Fraction, sizedist.Basis(d.Basis))
+		if err != nil {
+			return nil, nil, nil, err
+		}
+		return b, nil, b.Warnings, nil
+	}
+	var warnings []string
+	var at *atomize.Result
+	var m sizedist.Model
+	var err error
+	switch d.Model {
+	case "rosin-rammler":
+		if d.D32M > 0 {
+			m, err = sizedist.RosinRammlerFromSMD(d.D32M, d.Q)
+		} else {
+			m = sizedist.RosinRammler{X: d.XM, Q: d.Q}
+		}
+	case "log-normal":
+		if d.D32M > 0 {
+			m, err = sizedist.LogNormalFromSMD(d.D32M, d.GSD)
+		} else {
+			m = sizedist.LogNormal{Median: d.MedianM, GSD: d.GSD, Basis: sizedist.Basis(d.Basis)}
+		}
+	case "upper-limit":
+		if d.D32M > 0 {
+			m, err = sizedist.UpperLimitFromSMD(d.D32M, d.DUpperM, d.Delta)
+		} else {
+			m = sizedist.UpperLimit{DMax: d.DUpperM, Dv50: d.Dv50M, Delta: d.Delta}
+		}
+	case "nukiyama-tanasawa":
+		if err := valid.Positive("distribution.scale_m", d.ScaleM); d.D32M == 0 && err != nil {
+			return nil, nil, nil, err
+		}
+		if d.D32M > 0 {
+			m, err = sizedist.NukiyamaTanasawaFromSMD(d.D32M, d.P, d.QNT)
+		} else {
+			m = sizedist.NukiyamaTanasawa{B: math.Pow(d.ScaleM, -d.QNT), P: d.P, Q: d.QNT}
+		}
+	case "atomizer":
+		var smd float64
+		var q float64
+		at, smd, q, warnings, err = atomizerSMD(c, l, g)
+		if err == nil {
+			m, err = sizedist.RosinRammlerFromSMD(smd, q)
+		}
+	case "":
+		return nil, nil, nil, &valid.FieldError{Field: "distribution.model", Message: "choose a size model"}
+	default:
+		return nil, nil, nil, &valid.FieldError{Field: "distribution.model", Value: d.Model,
+			Message: `must be "rosin-rammler", "log-normal", "upper-limit", "nukiyama-tanasawa", "atomizer" or "bins"`}
+	}
+	if err != nil {
+		return nil, nil, nil, err
+	}
+	if err := m.Validate(); err != nil {
+		return nil, nil, nil, err
+	}
+	bins, dmin, dmax := d.Bins, d.DMinM, d.DMaxM
+	if bins == 0 {
+		bins = defaultBins
+	}
+	if bins < 2 || bins > MaxBins {
+		return nil, nil, nil, &valid.FieldError{Field: "distribution.bins", Value: fmt.Sprint(bins),
+			Message: fmt.Sprintf("must be between 2 and %d", MaxBins)}
+	}
+	// Without a range, cover the model from 0.1 % to 99.9 % of the volume.
+	if dmin == 0 {
+		dmin = m.VolumeQuantile(0.001)
+	}
+	if dmax == 0 {
+		dmax = m.VolumeQuantile(0.999)
+	}
+	b, err := sizedist.Cut(m, dmin, dmax, bins, sizedist.Spacing(d.Spacing))
+	if err != nil {
+		return nil, nil, nil, err
+	}
+	return b, at, append(warnings, b.Warnings...), nil
+}
+
+// atomizerSMD evaluates the case's nozzle and returns its chosen SMD and the
+// Rosin–Rammler spread to shape the distribution with.
+func atomizerSMD(c Case, l *fluid.Liquid, g *fluid.Gas) (*atomize.Result, float64, float64, []string, error) {
+	d := c.Distribution
+	t := c.Gas.TemperatureK
+	if c.LiquidTemperatureK != nil {
+		t = *c.LiquidTemperatureK
+	}
+	props := atomize.Properties{
+		LiquidDensity: l.Density(t), LiquidViscosity: l.Viscosity(t), SurfaceTension: l.SurfaceTension(t),
+		GasDensity: g.Density(c.Gas.TemperatureK, c.Gas.PressurePa), GasViscosity: g.Viscosity(c.Gas.TemperatureK),
+	}
+	res, err := atomize.Evaluate(d.Family, d.Correlation, d.Inputs, props)
+	if err != nil {
+		return nil, 0, 0, nil, err
+	}
+	if len(res.SMD) == 0 || res.SMD[0].SMD <= 0 {
+		msg := "this atomizer family has no drop-size correlation to build a distribution from"
+		if res.SMDStatus != "" {
+			msg = res.SMDStatus
+		}
+		return nil, 0, 0, nil, &valid.FieldError{Field: "distribution.family", Value: d.Family, Message: msg}
+	}
+	chosen := res.SMD[0]
+	if !strings.HasPrefix(chosen.Quantity, "SMD") && chosen.Quantity != "" {
+		return nil, 0, 0, nil, &valid.FieldError{Field: "distribution.correlation", Value: chosen.Correlation,
+			Message: fmt.Sprintf("predicts %s, not the SMD a distribution is built from; pick an SMD correlation", chosen.Quantity)}
+	}
+	q := d.Q
+	var warnings []string
+	if q == 0 {
+		for _, f := range atomize.Families() {
+			if f.ID == res.Family {
+				q = f.RosinRammlerQ
+				warnings = append(warnings, fmt.Sprintf("Rosin–Rammler spread q = %.3g is the family's typical value (%s); give q to override.", q, f.RosinRammlerQSource))
+			}
+		}
+	}
+	if err := valid.Between("distribution.q", q, 1.05, 20, ""); err != nil {
+		return nil, 0, 0, nil, err
+	}
+	warnings = append(warnings, res.Warnings...)
+	warnings = append(warnings, chosen.Warnings...)
+	if !chosen.InRange {
+		warnings = append(warnings, fmt.Sprintf("The %s correlation is used outside its published range; its SMD is an extrapolation.", chosen.Correlation))
+	}
+	return &res, chosen.SMD, q, warnings, nil
+}
+
+// filmAdapter gives evap the 1/3-rule film of calc/fluid.
+type filmAdapter struct {
+	l *fluid.Liquid
+	g *fluid.Gas
+}
+
+// Film implements evap.FilmModel. The mean free path is left at zero so that
+// evap uses the vapor mean free path 3D/c̄ that the Fuchs–Sutugin form is
+// written with (Seinfeld & Pandis eq. 12.43 convention).
+func (a filmAdapter) Film(p, ts, tinf, ys, yinf float64) evap.Film {
+	f := fluid.FilmProperties(a.l, a.g, p, ts, tinf, ys, yinf)
+	return evap.Film{T: f.T, VaporMassFraction: f.VaporMassFraction, Density: f.Density, Viscosity: f.Viscosity,
+		Conductivity: f.Conductivity, HeatCapacity: f.HeatCapacity, VaporHeatCapacity: f.VaporHeatCapacity,
+		Diffusivity: f.Diffusivity}
+}
+
+func (s *setup) conditions(curvature bool) *evap.Conditions {
+	e := s.c.Evaporation
+	conv := e.Convection
+	if conv == "" {
+		conv = evap.ConvectionRanzMarshall
+	}
+	return &evap.Conditions{
+		Liquid: s.liquid, Gas: filmAdapter{s.liquid, s.gas}, GasMolarMass: s.gas.MolarMass(),
+		Pressure: s.c.Gas.PressurePa, GasTemperature: s.c.Gas.TemperatureK, VaporMoleFraction: s.xInf,
+		RelativeVelocity: s.c.Gas.RelativeVelocityMS, Curvature: curvature, Transition: !e.NoTransition,
+		Convection: conv, AccommodationCoefficient: e.AccommodationCoef,
+	}
+}
+
+// Evaluate computes a case: classes, per-class curvature and evaporation,
+// the curvature summary, properties used and the spray history.
+func Evaluate(c Case) (*Result, error) {
+	s, err := prepare(c)
+	if err != nil {
+		return nil, err
+	}
+	cond := s.conditions(true)
+	res := &Result{Warnings: append([]string{}, s.warnings...), Atomizer: s.atomizer}
+	b := s.binned
+	sum := b.Summary()
+	res.Summary = Summary{D10M: sum.D10, D20M: sum.D20, D30M: sum.D30, D32M: sum.D32, D43M: sum.D43,
+		Dv10M: sum.Dv10, Dv50M: sum.Dv50, Dv90M: sum.Dv90, Span: sum.RelativeSpan, RelativeSpan: sum.RelativeSpan}
+	res.Warnings = append(res.Warnings, sum.Warnings...)
+
+	fixedT := 0.0
+	if s.c.LiquidTemperatureK != nil {
+		fixedT = *s.c.LiquidTemperatureK
+	}
+	seen := map[string]bool{}
+	warn := func(w string) {
+		if !seen[w] {
+			seen[w] = true
+			res.Warnings = append(res.Warnings, w)
+		}
+	}
+	n := b.Len()
+	res.Bins = make([]BinResult, n)
+	for i := range n {
+		d := b.Diameter(i)
+		var st evap.DropState
+		var err error
+		if fixedT > 0 {
+			st, err = cond.Drop(d, fixedT)
+		} else {
+			st, err = cond.SteadyState(d)
+		}
+		if err != nil {
+			return nil, evaluationError(err, d)
+		}
+		for _, w := range st.Warnings {
+			warn(w)
+		}
+		bin := BinResult{
+			DLoM: b.Edges[i], DHiM: b.Edges[i+1], DM: d,
+			NumberFraction: b.Number[i], VolumeFraction: b.Volume[i],
+			LaplacePa: st.LaplacePressure, VaporPressurePa: st.VaporPressure, KelvinRatio: st.KelvinRatio,
+			EvaporationEnhancement: st.Enhancement, SurfaceTemperatureK: st.SurfaceTemperature,
+			Knudsen: st.Knudsen, Regime: st.Regime, EvaporationRateKgS: st.MassRate,
+		}
+		life, err := cond.LifetimeReport(d, evap.LifetimeOptions{SurfaceTemperature: fixedT})
+		if err != nil {
+			return nil, evaluationError(err, d)
+		}
+		if life.Evaporates && !math.IsInf(life.Time, 0) {
+			t := life.Time
+			bin.LifetimeS = &t
+		}
+		res.Bins[i] = bin
+	}
+	refT := fixedT
+	if refT == 0 {
+		refT = res.Bins[n-1].SurfaceTemperatureK // the large-drop (wet-bulb) limit
+	}
+	res.Curvature = s.curvature(cond, refT, b)
+	res.Properties = s.properties(refT)
+	if e := s.c.Evaporation; e.MassFlowKgS > 0 {
+		nd, err := sizedist.DropsPerSecond(b, e.MassFlowKgS, s.liquid.Density(refT))
+		if err == nil {
+			res.Summary.DropsPerSecond = &nd
+		}
+	}
+	if err := s.history(cond, fixedT, res); err != nil {
+		return nil, err
+	}
+	return res, nil
+}
+
+// evaluationError explains a failure of the evaporation model.
+func evaluationError(err error, d float64) error {
+	if errors.Is(err, evap.ErrBoiling) {
+		return &Error{Code: Invalid, Message: fmt.Sprintf("The liquid boils at these conditions (drop %.3g µm): its vapor pressure reaches the gas pressure, so the quasi-steady evaporation model does not apply. Lower the liquid temperature or raise the pressure.", d*1e6), Err: err}
+	}
+	if ErrorCode(err) == Invalid {
+		return err
+	}
+	return &Error{Code: Internal, Message: "evaluation failed", Err: fmt.Errorf("drop %.4g m: %w", d, err)}
+}
+
+func (s *setup) curvature(cond *evap.Conditions, t float64, b *sizedist.Binned) Curvature {
+	l := s.liquid
+	sigma := l.SurfaceTension(t)
+	vm := l.MolarMass() / l.Density(t)
+	c := Curvature{
+		KelvinLengthM:         evap.KelvinLength(sigma, vm, t),
+		LaplaceOneAtmDM:       2 * 2 * sigma / phys.StandardAtmosphere,
+		ReferenceTemperatureK: t,
+	}
+	lo, hi := b.Edges[0], b.Edges[len(b.Edges)-1]
+	for _, lv := range []struct {
+		level float64
+		dst   **float64
+	}{{1.01, &c.Enhancement1PctDM}, {1.10, &c.Enhancement10PctDM}} {
+		if d, ok := enhancementThreshold(cond, lv.level, t, lo*1e-3, hi); ok {
+			v := d
+			*lv.dst = &v
+		}
+	}
+	if r, ok, err := cond.EquilibriumRadius(t); err == nil && ok {
+		c.KelvinCriticalRadiusM = &r
+	}
+	return c
+}
+
+func (s *setup) properties(t float64) Properties {
+	l, g, c := s.liquid, s.gas, s.c
+	ps := l.SaturationPressure(t)
+	ys := fluid.MassFractionFromMoleFraction(math.Min(ps/c.Gas.PressurePa, 0.999999), l.MolarMass(), g.MolarMass())
+	yinf := fluid.MassFractionFromMoleFraction(s.xInf, l.MolarMass(), g.MolarMass())
+	f := fluid.FilmProperties(l, g, c.Gas.PressurePa, t, c.Gas.TemperatureK, ys, yinf)
+	p := Properties{
+		Fluid: l.ID, TemperatureK: t, SaturationPressurePa: ps, SurfaceTensionNM: l.SurfaceTension(t),
+		LiquidDensityKgM3: l.Density(t), LiquidViscosityPaS: l.Viscosity(t), LatentHeatJKg: l.LatentHeat(t),
+		LiquidHeatCapacityJKgK: l.HeatCapacity(t), MolarMassKgMol: l.MolarMass(),
+		MolarVolumeM3Mol: l.MolarMass() / l.Density(t), NormalBoilingPointK: l.NormalBoilingPoint(),
+		GasDensityKgM3: g.Density(c.Gas.TemperatureK, c.Gas.PressurePa), FilmTemperatureK: f.T,
+		FilmDensityKgM3: f.Density, FilmViscosityPaS: f.Viscosity, FilmConductivityWMK: f.Conductivity,
+		FilmHeatCapacityJKgK: f.HeatCapacity, DiffusivityM2S: f.Diffusivity, MeanFreePathM: f.MeanFreePath,
+		AmbientVaporMoleFraction: s.xInf,
+	}
+	for _, src := range l.Sources() {
+		p.Sources = append(p.Sources, Source{Property: src.Property, Method: src.Method, Reference: src.Reference})
+	}
+	for _, src := range g.Sources() {
+		p.Sources = append(p.Sources, Source{Property: src.Property, Method: src.Method, Reference: src.Reference})
+	}
+	return p
+}
+
+// history is filled in once calc/evap offers the spray integrator.
+func (s *setup) history(cond *evap.Conditions, fixedT float64, res *Result) error {
+	return nil
+}
+
+// enhancementThreshold finds the diameter in [lo, hi] below which the
+// curvature raises the evaporation rate by more than level (e.g. 1.01) at
+// surface temperature t, by bisection in ln d: the enhancement falls
+// monotonically with d (Kelvin equation).
+func enhancementThreshold(cond *evap.Conditions, level, t, lo, hi float64) (float64, bool) {
+	enh := func(d float64) float64 {
+		st, err := cond.Drop(d, t)
+		if err != nil {
+			return math.NaN()
+		}
+		return st.Enhancement
+	}
+	flo, fhi := enh(lo), enh(hi)
+	if math.IsNaN(flo) || math.IsNaN(fhi) || flo < level || fhi > level {
+		return 0, false
+	}
+	a, b := math.Log(lo), math.Log(hi)
+	for range 60 {
+		m := 0.5 * (a + b)
+		if enh(math.Exp(m)) > level {
+			a = m
+		} else {
+			b = m
+		}
+	}
+	return math.Exp(0.5 * (a + b)), true
+}

@@ -1,0 +1,244 @@
+// Command fogbench is a local web app for sizing atomizers and sprays: drop
+// size distributions, the Laplace pressure and Kelvin raise of vapor pressure
+// per size class, evaporation of each class and of the whole spray, and a
+// shared SQLite case library.
+//
+// Usage:
+//
+//	fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db]
+//	fogbench eval [FILE|-]          evaluate case file(s), print results as JSON
+//	fogbench backup -db LIB FILE    consistent copy of a running library
+package main
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"log/slog"
+	"net"
+	"net/http"
+	"os"
+	"os/signal"
+	"syscall"
+	"time"
+
+	"fogbench/calc"
+	"fogbench/server"
+	"fogbench/store"
+)
+
+func main() {
+	os.Exit(run(os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
+}
+
+// run dispatches a subcommand and returns the exit code: 0 success, 1 a
+// fault, 2 bad input or usage.
+func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+	cmd := "serve"
+	if len(args) > 0 && len(args[0]) > 0 && args[0][0] != '-' {
+		cmd, args = args[0], args[1:]
+	}
+	switch cmd {
+	case "serve":
+		return serve(args, stderr)
+	case "eval":
+		return evalCmd(args, stdin, stdout, stderr)
+	case "backup":
+		return backupCmd(args, stderr)
+	case "help", "-h", "--help":
+		fmt.Fprint(stdout, usage)
+		return 0
+	}
+	fmt.Fprintf(stderr, "fogbench: unknown command %q\n%s", cmd, usage)
+	return 2
+}
+
+const usage = `usage:
+  fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db]
+  fogbench eval [FILE|-]            evaluate a case file (one case or an array) and print the results as JSON
+  fogbench backup [-db fogbench.db] FILE   write a consistent copy of the library (safe while serving)
+`
+
+func serve(args []string, stderr io.Writer) int {
+	fs := flag.NewFlagSet("serve", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	addr := fs.String("addr", "127.0.0.1:8080", "address to listen on")
+	dbPath := fs.String("db", "fogbench.db", "SQLite case library (created with demo cases if missing)")
+	verbose := fs.Bool("v", false, "log every request")
+	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	level := slog.LevelInfo
+	if *verbose {
+		level = slog.LevelDebug
+	}
+	logger := slog.New(slog.NewTextHandler(stderr, &slog.HandlerOptions{Level: level}))
+	if err := checkLoopback(*addr); err != nil {
+		fmt.Fprintf(stderr, "fogbench: %v\n", err)
+		return 2
+	}
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	defer stop()
+	st, err := store.Open(ctx, *dbPath)
+	if err != nil {
+		fmt.Fprintf(stderr, "fogbench: %v\n", err)
+		return 1
+	}
+	defer st.Close()
+	if n, err := st.SeedDemo(ctx); err != nil {
+		fmt.Fprintf(stderr, "fogbench: %v\n", err)
+		return 1
+	} else if n > 0 {
+		logger.Info("new library seeded with demo cases", "db", *dbPath, "cases", n)
+	}
+	srv := &http.Server{
+		Addr:              *addr,
+		Handler:           server.New(st, logger).Handler(),
+		ReadHeaderTimeout: 10 * time.Second,
+		ReadTimeout:       60 * time.Second,
+		WriteTimeout:      60 * time.Second,
+		IdleTimeout:       120 * time.Second,
+	}
+	ln, err := net.Listen("tcp", *addr)
+	if err != nil {
+		fmt.Fprintf(stderr, "fogbench: %v\n", err)
+		return 1
+	}
+	logger.Info("fogbench is serving", "url", "http://"+ln.Addr().String()+"/", "db", *dbPath)
+	errc := make(chan error, 1)
+	go func() { errc <- srv.Serve(ln) }()
+	select {
+	case err := <-errc:
+		fmt.Fprintf(stderr, "fogbench: %v\n", err)
+		return 1
+	case <-ctx.Done():
+	}
+	logger.Info("shutting down: draining requests")
+	sctx, cancel := context.WithTimeout(context.Background(), 15*time.Second)
+	defer cancel()
+	if err := srv.Shutdown(sctx); err != nil {
+		logger.Error("shutdown", "err", err)
+		return 1
+	}
+	return 0
+}
+
+// checkLoopback refuses a non-loopback address: fogbench has no access
+// control yet, so it serves this machine only.
+func checkLoopback(addr string) error {
+	host, _, err := net.SplitHostPort(addr)
+	if err != nil {
+		return fmt.Errorf("-addr %q: %v", addr, err)
+	}
+	if host == "localhost" {
+		return nil
+	}
+	ip := net.ParseIP(host)
+	if ip == nil || !ip.IsLoopback() {
+		return fmt.Errorf("-addr %q is not a loopback address; fogbench serves only this machine until access control is configured", addr)
+	}
+	return nil
+}
+
+// evalCmd reads case file(s) and prints the results as JSON: one object for
+// one case, an array for an array.
+func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+	if len(args) > 1 {
+		fmt.Fprintf(stderr, "fogbench eval: give one file or - for standard input\n")
+		return 2
+	}
+	in, name := stdin, "standard input"
+	if len(args) == 1 && args[0] != "-" {
+		f, err := os.Open(args[0])
+		if err != nil {
+			fmt.Fprintf(stderr, "fogbench eval: %v\n", err)
+			return 2
+		}
+		defer f.Close()
+		in, name = f, args[0]
+	}
+	data, err := io.ReadAll(in)
+	if err != nil {
+		fmt.Fprintf(stderr, "fogbench eval: read %s: %v\n", name, err)
+		return 1
+	}
+	cases, err := calc.Decode(bytes.NewReader(data))
+	if err != nil {
+		fmt.Fprintf(stderr, "fogbench eval: %s: %v\n", name, err)
+		return 2
+	}
+	results := make([]*calc.Result, len(cases))
+	for i, c := range cases {
+		res, err := calc.Evaluate(c)
+		if err != nil {
+			where := name
+			if len(cases) > 1 {
+				where = fmt.Sprintf("%s: case %d", name, i+1)
+			}
+			fmt.Fprintf(stderr, "fogbench eval: %s: %v\n", where, oneLine(err))
+			if calc.ErrorCode(err) == calc.Internal {
+				return 1
+			}
+			return 2
+		}
+		results[i] = res
+	}
+	enc := json.NewEncoder(stdout)
+	enc.SetIndent("", "  ")
+	var out any = results
+	if !calc.IsArray(data) {
+		out = results[0]
+	}
+	if err := enc.Encode(out); err != nil {
+		fmt.Fprintf(stderr, "fogbench eval: %v\n", err)
+		return 1
+	}
+	return 0
+}
+
+func oneLine(err error) string {
+	s := err.Error()
+	for i, r := range s {
+		if r == '\n' {
+			return s[:i]
+		}
+	}
+	return s
+}
+
+func backupCmd(args []string, stderr io.Writer) int {
+	fs := flag.NewFlagSet("backup", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	dbPath := fs.String("db", "fogbench.db", "SQLite case library")
+	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	if fs.NArg() != 1 {
+		fmt.Fprintln(stderr, "fogbench backup: give the destination file")
+		return 2
+	}
+	dest := fs.Arg(0)
+	if _, err := os.Stat(dest); err == nil {
+		fmt.Fprintf(stderr, "fogbench backup: %s exists; choose a new file\n", dest)
+		return 2
+	} else if !errors.Is(err, os.ErrNotExist) {
+		fmt.Fprintf(stderr, "fogbench backup: %v\n", err)
+		return 1
+	}
+	ctx := context.Background()
+	st, err := store.Open(ctx, *dbPath)
+	if err != nil {
+		fmt.Fprintf(stderr, "fogbench backup: %v\n", err)
+		return 1
+	}
+	defer st.Close()
+	if err := st.Backup(ctx, dest); err != nil {
+		fmt.Fprintf(stderr, "fogbench backup: %v\n", err)
+		return 1
+	}
+	return 0
+}

@@ -1,0 +1,231 @@
+package server
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"net/http"
+	"strconv"
+
+	"fogbench/calc"
+	"fogbench/calc/valid"
+	"fogbench/store"
+)
+
+// handleAPIEvaluate serves POST /api/evaluate: a case file in, its result
+// out (an array in, an array out).
+func (s *Server) handleAPIEvaluate(w http.ResponseWriter, r *http.Request) {
+	cases, isArray, err := decodeBody(r)
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	results := make([]*calc.Result, len(cases))
+	for i, c := range cases {
+		res, err := calc.Evaluate(c)
+		if err != nil {
+			if isArray {
+				err = fmt.Errorf("case %d: %w", i+1, err)
+			}
+			s.apiError(w, r, err)
+			return
+		}
+		results[i] = res
+	}
+	if isArray {
+		writeJSON(w, http.StatusOK, results)
+		return
+	}
+	writeJSON(w, http.StatusOK, results[0])
+}
+
+// decodeBody reads one case or an array of cases from a request body.
+func decodeBody(r *http.Request) ([]calc.Case, bool, error) {
+	data, err := io.ReadAll(r.Body)
+	if err != nil {
+		return nil, false, err
+	}
+	cases, err := calc.Decode(bytes.NewReader(data))
+	if err != nil {
+		return nil, false, err
+	}
+	return cases, calc.IsArray(data), nil
+}
+
+type caseJSON struct {
+	ID        int64      `json:"id"`
+	Revision  int        `json:"revision"`
+	Name      string     `json:"name"`
+	Fluid     string     `json:"fluid,omitempty"`
+	Model     string     `json:"model,omitempty"`
+	Tags      []string   `json:"tags"`
+	UpdatedAt string     `json:"updated_at"`
+	Case      *calc.Case `json:"case,omitempty"`
+	Author    string     `json:"author,omitempty"`
+	ParentID  int64      `json:"parent_id,omitempty"`
+}
+
+func recordJSON(rec store.CaseRecord) caseJSON {
+	c := rec.Case
+	return caseJSON{ID: rec.ID, Revision: rec.Revision, Name: c.Name, Fluid: c.Fluid, Model: c.Distribution.Model,
+		Tags: nonNil(rec.Tags), UpdatedAt: rec.UpdatedAt.Format("2006-01-02T15:04:05Z07:00"), Case: &c,
+		Author: rec.Author, ParentID: rec.ParentID}
+}
+
+func nonNil(s []string) []string {
+	if s == nil {
+		return []string{}
+	}
+	return s
+}
+
+// handleAPICaseList serves GET /api/cases.
+func (s *Server) handleAPICaseList(w http.ResponseWriter, r *http.Request) {
+	q := r.URL.Query()
+	limit, _ := strconv.Atoi(q.Get("limit"))
+	offset, _ := strconv.Atoi(q.Get("offset"))
+	rows, total, err := s.Store.ListCases(r.Context(), store.ListOptions{Query: q.Get("q"), Fluid: q.Get("fluid"),
+		Tag: q.Get("tag"), Sort: q.Get("sort"), Limit: limit, Offset: offset})
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	out := make([]caseJSON, len(rows))
+	for i, c := range rows {
+		out[i] = caseJSON{ID: c.ID, Revision: c.Revision, Name: c.Name, Fluid: c.Fluid, Model: c.Model,
+			Tags: nonNil(c.Tags), UpdatedAt: c.UpdatedAt.Format("2006-01-02T15:04:05Z07:00")}
+	}
+	writeJSON(w, http.StatusOK, map[string]any{"cases": out, "total": total})
+}
+
+// handleAPICaseGet serves GET /api/cases/{id}.
+func (s *Server) handleAPICaseGet(w http.ResponseWriter, r *http.Request) {
+	id, err := caseID(r)
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	rec, err := s.Store.GetCase(r.Context(), id)
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	writeJSON(w, http.StatusOK, recordJSON(rec))
+}
+
+// handleAPICaseFile serves GET /api/cases/{id}/file: the case file alone,
+// as a download.
+func (s *Server) handleAPICaseFile(w http.ResponseWriter, r *http.Request) {
+	id, err := caseID(r)
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	rec, err := s.Store.GetCase(r.Context(), id)
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	data, err := rec.Case.Encode()
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	w.Header().Set("Content-Type", "application/json")
+	w.Header().Set("Content-Disposition", fmt.Sprintf(`attachment; filename="case-%d-rev%d.json"`, rec.ID, rec.Revision))
+	w.Write(append(data, '\n'))
+}
+
+// handleAPICaseCreate serves POST /api/cases: a case file in, 201 with its
+// id and revision.
+func (s *Server) handleAPICaseCreate(w http.ResponseWriter, r *http.Request) {
+	cases, isArray, err := decodeBody(r)
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	if isArray || len(cases) != 1 {
+		s.apiError(w, r, &valid.FieldError{Field: "file", Message: "send one case, not an array"})
+		return
+	}
+	if err := calc.Validate(cases[0]); err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	rec, err := s.Store.CreateCase(r.Context(), cases[0], s.author(r))
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	w.Header().Set("Location", fmt.Sprintf("/api/cases/%d", rec.ID))
+	writeJSON(w, http.StatusCreated, recordJSON(rec))
+}
+
+// handleAPICaseUpdate serves PUT /api/cases/{id} with
+// {"revision":N,"case":{…}}; 409 with both versions when N is not the newest.
+func (s *Server) handleAPICaseUpdate(w http.ResponseWriter, r *http.Request) {
+	id, err := caseID(r)
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	var body struct {
+		Revision int             `json:"revision"`
+		Case     json.RawMessage `json:"case"`
+	}
+	dec := json.NewDecoder(r.Body)
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(&body); err != nil {
+		s.apiError(w, r, &valid.FieldError{Field: "file", Message: "expected {\"revision\":N,\"case\":{…}}: " + err.Error()})
+		return
+	}
+	if body.Revision <= 0 {
+		s.apiError(w, r, &valid.FieldError{Field: "revision", Message: "give the revision your change is based on"})
+		return
+	}
+	c, err := calc.DecodeOne(body.Case)
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	if err := calc.Validate(c); err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	rec, err := s.Store.UpdateCase(r.Context(), id, body.Revision, c, s.author(r))
+	var ce *store.ConflictError
+	if errors.As(err, &ce) {
+		writeJSON(w, http.StatusConflict, map[string]any{
+			"error": ce.Error(), "yours": map[string]any{"revision": body.Revision, "case": c},
+			"current": recordJSON(ce.Current),
+		})
+		return
+	}
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	writeJSON(w, http.StatusOK, recordJSON(rec))
+}
+
+// handleAPIRevisions serves GET /api/cases/{id}/revisions.
+func (s *Server) handleAPIRevisions(w http.ResponseWriter, r *http.Request) {
+	id, err := caseID(r)
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	revs, err := s.Store.Revisions(r.Context(), id)
+	if err != nil {
+		s.apiError(w, r, err)
+		return
+	}
+	out := make([]map[string]any, len(revs))
+	for i, rv := range revs {
+		out[i] = map[string]any{"revision": rv.Revision, "name": rv.Name, "author": rv.Author,
+			"created_at": rv.CreatedAt.Format("2006-01-02T15:04:05Z07:00")}
+	}
+	writeJSON(w, http.StatusOK, map[string]any{"revisions": out})
+}

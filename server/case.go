@@ -1,0 +1,421 @@
+package server
+
+import (
+	"errors"
+	"fmt"
+	"net/http"
+	"strconv"
+
+	"github.com/go-chi/chi/v5"
+
+	"fogbench/calc"
+	"fogbench/calc/fluid"
+	"fogbench/calc/units"
+	"fogbench/calc/valid"
+	"fogbench/store"
+	"fogbench/views"
+)
+
+const pageSize = 50
+
+// handleLibrary serves GET /cases.
+func (s *Server) handleLibrary(w http.ResponseWriter, r *http.Request) {
+	q := r.URL.Query()
+	page, _ := strconv.Atoi(q.Get("page"))
+	page = max(page, 1)
+	opts := store.ListOptions{
+		Query: q.Get("q"), Fluid: q.Get("fluid"), Tag: q.Get("tag"), Sort: q.Get("sort"),
+		Trash: q.Get("trash") == "1", Limit: pageSize, Offset: (page - 1) * pageSize,
+	}
+	rows, total, err := s.Store.ListCases(r.Context(), opts)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	v := views.LibraryView{
+		Chrome: views.Chrome{Title: "Case library", Nav: "library", Display: display(r), Flash: q.Get("flash")},
+		Total:  total, Query: opts.Query, Fluid: opts.Fluid, Tag: opts.Tag, Sort: opts.Sort, Trash: opts.Trash,
+		Fluids: fluidOptions(), Page: page, Pages: (total + pageSize - 1) / pageSize,
+	}
+	for _, c := range rows {
+		v.Rows = append(v.Rows, views.CaseRow{ID: c.ID, Name: c.Name, Fluid: c.Fluid, Model: modelLabel(c.Model, c.Family),
+			Revision: c.Revision, Updated: c.UpdatedAt, Tags: c.Tags})
+	}
+	s.render(w, r, http.StatusOK, v.Chrome, views.LibraryPage(v))
+}
+
+func modelLabel(model, family string) string {
+	if model == "atomizer" && family != "" {
+		return "atomizer: " + family
+	}
+	return model
+}
+
+func fluidOptions() []views.Option {
+	var out []views.Option
+	for _, l := range fluid.Liquids() {
+		out = append(out, views.Option{Value: l.ID, Label: l.Name})
+	}
+	return out
+}
+
+func gasOptions() []views.Option {
+	var out []views.Option
+	for _, g := range fluid.Gases() {
+		out = append(out, views.Option{Value: g.ID, Label: g.Name})
+	}
+	return out
+}
+
+func caseID(r *http.Request) (int64, error) {
+	raw := chi.URLParam(r, "id")
+	id, err := strconv.ParseInt(raw, 10, 64)
+	if err != nil || id <= 0 {
+		return 0, calc.Errorf(calc.NotFound, "%q is not a case number", raw)
+	}
+	return id, nil
+}
+
+// handleCaseShow serves GET /cases/{id}.
+func (s *Server) handleCaseShow(w http.ResponseWriter, r *http.Request) {
+	id, err := caseID(r)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	rec, err := s.Store.GetCase(r.Context(), id)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	v := s.caseView(r, rec)
+	v.Flash = r.URL.Query().Get("flash")
+	s.render(w, r, http.StatusOK, v.Chrome, views.CasePage(v))
+}
+
+// caseView evaluates a stored case and prepares the page.
+func (s *Server) caseView(r *http.Request, rec store.CaseRecord) views.CaseView {
+	d := display(r)
+	v := views.CaseView{
+		Chrome: views.Chrome{Title: rec.Case.Name, Nav: "library", Display: d},
+		ID:     rec.ID, Revision: rec.Revision, Case: rec.Case, Author: rec.Author,
+		Updated: rec.UpdatedAt, Tags: rec.Tags, ParentID: rec.ParentID,
+		Inputs: inputFigures(rec.Case, d), Flammable: flammable(rec.Case.Fluid),
+	}
+	s.fillResults(r, &v)
+	return v
+}
+
+// fillResults evaluates v.Case and draws its plots; a case that cannot be
+// computed gets the reason instead.
+func (s *Server) fillResults(r *http.Request, v *views.CaseView) {
+	res, err := calc.Evaluate(v.Case)
+	if err != nil {
+		if calc.ErrorCode(err) == calc.Internal {
+			s.Logger.Error("evaluate", "path", r.URL.Path, "err", err)
+		}
+		v.Error = calc.ErrorMessage(err)
+		return
+	}
+	v.Result = res
+	v.Plots = s.plots(res)
+}
+
+func (s *Server) plots(res *calc.Result) []views.Plot {
+	type spec struct {
+		id, caption string
+		c           chart
+		ok          bool
+	}
+	hc, hok := historyChart(res)
+	specs := []spec{
+		{"volume", "Volume per unit ln d (steps, area = volume fraction) and cumulative volume; dashed lines mark D32 and Dv50.", volumeChart(res), true},
+		{"curvature", "Raise of the vapor pressure by the Kelvin equation and of the evaporation rate, each as ratio − 1, per size class.", curvatureChart(res), true},
+		{"history", "Share of the liquid mass evaporated, and the Sauter mean diameter of the drops still present, against time.", hc, hok},
+	}
+	var out []views.Plot
+	for _, sp := range specs {
+		if !sp.ok {
+			continue
+		}
+		svg, err := sp.c.SVG()
+		if err != nil {
+			s.Logger.Warn("plot", "id", sp.id, "err", err)
+			continue
+		}
+		out = append(out, views.Plot{ID: sp.id, Title: sp.c.Title, SVG: svg, Caption: sp.caption})
+	}
+	return out
+}
+
+func flammable(id string) bool {
+	l, err := fluid.Lookup(id)
+	if err != nil {
+		return true // unknown liquids are treated as flammable
+	}
+	return l.ID != "water"
+}
+
+// inputFigures lists a case's inputs for the side panel.
+func inputFigures(c calc.Case, d views.Display) []views.Figure {
+	name := c.Fluid
+	if l, err := fluid.Lookup(c.Fluid); err == nil {
+		name = l.Name
+	}
+	figs := []views.Figure{{Label: "Liquid", Value: name}}
+	if c.LiquidTemperatureK != nil {
+		figs = append(figs, views.Figure{Label: "Drop temperature", Value: d.Quantity(units.Temperature, *c.LiquidTemperatureK, 5)})
+	} else {
+		figs = append(figs, views.Figure{Label: "Drop temperature", Value: "steady (solved per class)"})
+	}
+	figs = append(figs,
+		views.Figure{Label: "Gas", Value: c.Gas.ID},
+		views.Figure{Label: "Pressure", Value: d.Quantity(units.Pressure, c.Gas.PressurePa, 6)},
+		views.Figure{Label: "Gas temperature", Value: d.Quantity(units.Temperature, c.Gas.TemperatureK, 5)})
+	switch {
+	case c.Gas.RelativeHumidity != nil:
+		figs = append(figs, views.Figure{Label: "Relative saturation", Value: views.Num(*c.Gas.RelativeHumidity*100, 4) + " %"})
+	case c.Gas.VaporPartialPressurePa != nil:
+		figs = append(figs, views.Figure{Label: "Vapor partial pressure", Value: d.Quantity(units.Pressure, *c.Gas.VaporPartialPressurePa, 4)})
+	case c.Gas.VaporMoleFraction != nil:
+		figs = append(figs, views.Figure{Label: "Vapor mole fraction", Value: views.Num(*c.Gas.VaporMoleFraction, 4)})
+	}
+	if c.Gas.RelativeVelocityMS > 0 {
+		figs = append(figs, views.Figure{Label: "Relative velocity", Value: d.Quantity(units.Velocity, c.Gas.RelativeVelocityMS, 4)})
+	}
+	dist := c.Distribution
+	figs = append(figs, views.Figure{Label: "Drop sizes", Value: dist.Model})
+	add := func(label, v string) { figs = append(figs, views.Figure{Label: label, Value: v}) }
+	um := func(m float64) string { return views.Micro(m) + " µm" }
+	switch dist.Model {
+	case "rosin-rammler":
+		if dist.D32M > 0 {
+			add("D32", um(dist.D32M))
+		} else {
+			add("X", um(dist.XM))
+		}
+		add("q", views.Num(dist.Q, 4))
+	case "log-normal":
+		add("Median ("+dist.Basis+")", um(dist.MedianM))
+		add("σg", views.Num(dist.GSD, 4))
+	case "upper-limit":
+		add("Largest drop", um(dist.DUpperM))
+		add("Dv50", um(dist.Dv50M))
+		add("δ", views.Num(dist.Delta, 4))
+	case "nukiyama-tanasawa":
+		add("Scale b^(−1/q)", um(dist.ScaleM))
+		add("p", views.Num(dist.P, 4))
+		add("q", views.Num(dist.QNT, 4))
+	case "bins":
+		add("Classes", fmt.Sprintf("%d (%s basis)", len(dist.Fraction), dist.Basis))
+	case "atomizer":
+		add("Family", dist.Family)
+		add("Correlation", dist.Correlation)
+		add("q", views.Num(dist.Q, 4))
+	}
+	if dist.Model != "bins" && dist.Bins > 0 {
+		add("Classes", fmt.Sprintf("%d, %s–%s µm", dist.Bins, views.Micro(dist.DMinM), views.Micro(dist.DMaxM)))
+	}
+	return figs
+}
+
+// formView builds the form page from values.
+func (s *Server) formView(r *http.Request, title, action string, id int64, rev int, vals, us valuesMap, errs valid.Errors, model string) views.FormView {
+	f := views.FormView{
+		Chrome: views.Chrome{Title: title, Nav: "new", Display: display(r)},
+		Action: action, ID: id, Revision: rev, Values: vals, Units: us,
+		Errors: map[string]string{}, Fluids: fluidOptions(), Gases: gasOptions(),
+	}
+	if id > 0 {
+		f.Nav = "library"
+	}
+	for _, e := range errs {
+		name := formFor(e.Field, model)
+		if name == "" {
+			name = e.Field // already a form name (parse errors)
+		}
+		if _, known := f.Errors[name]; known {
+			continue
+		}
+		if isFormInput(name) {
+			f.Errors[name] = e.Message
+		} else {
+			f.General += e.Error() + " "
+		}
+	}
+	return f
+}
+
+func isFormInput(name string) bool {
+	switch name {
+	case "name", "notes", "fluid", "gas", "vapor", "model", "bins", "spacing", "edges", "fractions",
+		"ln_basis", "bins_basis", "convection", "mass_flow":
+		return true
+	}
+	for _, f := range numberFields {
+		if f.name == name {
+			return true
+		}
+	}
+	return false
+}
+
+// handleCaseNew serves GET /cases/new.
+func (s *Server) handleCaseNew(w http.ResponseWriter, r *http.Request) {
+	vals, us := fillForm(newCaseDefaults(), display(r))
+	f := s.formView(r, "New case", "/cases", 0, 0, vals, us, nil, "")
+	s.render(w, r, http.StatusOK, f.Chrome, views.CaseFormPage(f))
+}
+
+// readCaseForm parses and validates a submitted case form. It returns the
+// case, the raw form and the errors to show (nil when the case is good).
+func readCaseForm(r *http.Request) (calc.Case, caseForm, valid.Errors, error) {
+	if err := r.ParseForm(); err != nil {
+		return calc.Case{}, caseForm{}, nil, err
+	}
+	c, cf := parseCaseForm(r.PostForm)
+	errs := cf.Errors
+	if len(errs) == 0 {
+		// Validate only when every field could be read, so a message about
+		// a missing value is not shown beside a field the user did fill.
+		if err := calc.Validate(c); err != nil {
+			fes := calc.FieldErrors(err)
+			if fes == nil {
+				return c, cf, nil, err
+			}
+			errs = fes
+		}
+	}
+	return c, cf, errs, nil
+}
+
+// handleCaseCreate serves POST /cases.
+func (s *Server) handleCaseCreate(w http.ResponseWriter, r *http.Request) {
+	c, cf, errs, err := readCaseForm(r)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	if len(errs) > 0 {
+		f := s.formView(r, "New case", "/cases", 0, 0, cf.Values, cf.Units, errs, c.Distribution.Model)
+		s.render(w, r, http.StatusUnprocessableEntity, f.Chrome, views.CaseFormPage(f))
+		return
+	}
+	rec, err := s.Store.CreateCase(r.Context(), c, s.author(r))
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved", rec.ID), http.StatusSeeOther)
+}
+
+// handleCaseEdit serves GET /cases/{id}/edit.
+func (s *Server) handleCaseEdit(w http.ResponseWriter, r *http.Request) {
+	id, err := caseID(r)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	rec, err := s.Store.GetCase(r.Context(), id)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	vals, us := fillForm(rec.Case, display(r))
+	f := s.formView(r, "Edit "+rec.Case.Name, fmt.Sprintf("/cases/%d", id), id, rec.Revision, vals, us, nil, "")
+	s.render(w, r, http.StatusOK, f.Chrome, views.CaseFormPage(f))
+}
+
+// handleCaseUpdate serves POST /cases/{id}: a new revision, or a conflict
+// when someone saved since the form was opened.
+func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
+	id, err := caseID(r)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	c, cf, errs, err := readCaseForm(r)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	base, _ := strconv.Atoi(r.PostForm.Get("revision"))
+	action := fmt.Sprintf("/cases/%d", id)
+	if len(errs) > 0 {
+		f := s.formView(r, "Edit "+c.Name, action, id, base, cf.Values, cf.Units, errs, c.Distribution.Model)
+		s.render(w, r, http.StatusUnprocessableEntity, f.Chrome, views.CaseFormPage(f))
+		return
+	}
+	if r.PostForm.Get("as_copy") == "1" {
+		rec, err := s.Store.CreateCase(r.Context(), c, s.author(r))
+		if err != nil {
+			s.error(w, r, err)
+			return
+		}
+		http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved+as+a+new+case", rec.ID), http.StatusSeeOther)
+		return
+	}
+	rec, err := s.Store.UpdateCase(r.Context(), id, base, c, s.author(r))
+	var ce *store.ConflictError
+	if errors.As(err, &ce) {
+		f := s.formView(r, "Edit "+c.Name, action, id, base, cf.Values, cf.Units, nil, c.Distribution.Model)
+		f.General = ce.Error() + ". Your version is kept in the form below: save it as a new case, or open the current revision and apply your changes there."
+		f.Conflict = &views.ConflictInfo{CurrentRevision: ce.Current.Revision, CurrentURL: fmt.Sprintf("/cases/%d", id)}
+		s.render(w, r, http.StatusConflict, f.Chrome, views.CaseFormPage(f))
+		return
+	}
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved+revision+%d", rec.ID, rec.Revision), http.StatusSeeOther)
+}
+
+// handleCaseDuplicate serves POST /cases/{id}/duplicate.
+func (s *Server) handleCaseDuplicate(w http.ResponseWriter, r *http.Request) {
+	id, err := caseID(r)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	src, err := s.Store.GetCase(r.Context(), id)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	rec, err := s.Store.DuplicateCase(r.Context(), id, "Copy of "+src.Case.Name, s.author(r))
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	http.Redirect(w, r, fmt.Sprintf("/cases/%d/edit", rec.ID), http.StatusSeeOther)
+}
+
+// handleCasePreview serves POST /cases/preview: the results panel for the
+// form as it stands, swapped in by htmx while the user types.
+func (s *Server) handleCasePreview(w http.ResponseWriter, r *http.Request) {
+	c, _, errs, err := readCaseForm(r)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	v := views.CaseView{Chrome: views.Chrome{Display: display(r)}, Case: c, Flammable: flammable(c.Fluid)}
+	if len(errs) > 0 {
+		v.Error = "Not computed yet: " + errs.Error()
+	} else {
+		s.fillResults(r, &v)
+	}
+	s.renderFragment(w, r, http.StatusOK, views.ResultsPanel(v))
+}
+
+// author names who saved a revision: the name the user set (cookie), else
+// the server's default.
+func (s *Server) author(r *http.Request) string {
+	if c, err := r.Cookie("author"); err == nil && c.Value != "" && len(c.Value) <= 60 {
+		return c.Value
+	}
+	if s.Author != "" {
+		return s.Author
+	}
+	return "local user"
+}

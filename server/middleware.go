@@ -1,0 +1,84 @@
+package server
+
+import (
+	"errors"
+	"fmt"
+	"log/slog"
+	"net/http"
+	"runtime/debug"
+	"time"
+
+	"github.com/go-chi/chi/v5/middleware"
+
+	"fogbench/calc"
+)
+
+// requestLogger logs one line per request with slog.
+func requestLogger(l *slog.Logger) func(http.Handler) http.Handler {
+	return func(next http.Handler) http.Handler {
+		return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+			ww := middleware.NewWrapResponseWriter(w, r.ProtoMajor)
+			start := time.Now()
+			next.ServeHTTP(ww, r)
+			l.Debug("request", "method", r.Method, "path", r.URL.Path, "status", ww.Status(),
+				"bytes", ww.BytesWritten(), "dur", time.Since(start), "client", middleware.GetClientIP(r.Context()),
+				"request_id", middleware.GetReqID(r.Context()))
+		})
+	}
+}
+
+// recoverer turns a panic into a logged internal error and an error page.
+func (s *Server) recoverer(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		defer func() {
+			if v := recover(); v != nil {
+				if v == http.ErrAbortHandler {
+					panic(v)
+				}
+				s.Logger.Error("panic", "path", r.URL.Path, "value", fmt.Sprint(v), "stack", string(debug.Stack()))
+				s.error(w, r, &calc.Error{Code: calc.Internal, Message: "internal error", Err: fmt.Errorf("panic: %v", v)})
+			}
+		}()
+		next.ServeHTTP(w, r)
+	})
+}
+
+// securityHeaders forbids inline script and framing and keeps the referrer
+// to ourselves. htmx is loaded from /static and configured not to inject
+// inline styles.
+func securityHeaders(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		h := w.Header()
+		h.Set("Content-Security-Policy", "default-src 'self'; script-src 'self'; style-src 'self'; img-src 'self' data:; frame-ancestors 'none'; base-uri 'none'; form-action 'self'")
+		h.Set("X-Content-Type-Options", "nosniff")
+		h.Set("Referrer-Policy", "same-origin")
+		h.Set("X-Frame-Options", "DENY")
+		next.ServeHTTP(w, r)
+	})
+}
+
+// limitBody caps request bodies; handlers see *http.MaxBytesError past it.
+func limitBody(n int64) func(http.Handler) http.Handler {
+	return func(next http.Handler) http.Handler {
+		return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+			if r.Body != nil {
+				r.Body = http.MaxBytesReader(w, r.Body, n)
+			}
+			next.ServeHTTP(w, r)
+		})
+	}
+}
+
+func isTooLarge(err error) bool {
+	var mbe *http.MaxBytesError
+	return errors.As(err, &mbe)
+}
+
+// cacheStatic lets browsers keep the embedded assets for a day; embed.FS has
+// no modification times to revalidate against.
+func cacheStatic(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Cache-Control", "public, max-age=86400")
+		next.ServeHTTP(w, r)
+	})
+}

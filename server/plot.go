@@ -1,0 +1,261 @@
+package server
+
+import (
+	"bytes"
+	"fmt"
+	"image/color"
+	"math"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+	"gonum.org/v1/plot/vg/vgimg"
+	"gonum.org/v1/plot/vg/vgsvg"
+
+	"fogbench/calc"
+)
+
+// Plot colours of our own: deep teal, rust, olive, slate, plum, ochre.
+var palette = []color.Color{
+	color.RGBA{0x1f, 0x5f, 0x7a, 0xff},
+	color.RGBA{0xb0, 0x4a, 0x1e, 0xff},
+	color.RGBA{0x5b, 0x6e, 0x1f, 0xff},
+	color.RGBA{0x4a, 0x55, 0x68, 0xff},
+	color.RGBA{0x7d, 0x3c, 0x78, 0xff},
+	color.RGBA{0xa8, 0x7b, 0x00, 0xff},
+}
+
+// series is one line of a plot.
+type series struct {
+	Name   string
+	X, Y   []float64
+	Step   bool // draw as a histogram outline
+	Dashed bool
+}
+
+// chart describes a plot before it is drawn to SVG or PNG.
+type chart struct {
+	Title, XLabel, YLabel string
+	LogX, LogY            bool
+	Series                []series
+	Marks                 []float64 // vertical reference lines at these x
+	MarkNames             []string
+}
+
+// newPlot builds the gonum plot. Points that a log axis cannot show (≤ 0,
+// NaN, Inf) are dropped, since gonum panics on them.
+func (c chart) newPlot() (*plot.Plot, error) {
+	p := plot.New()
+	p.Title.Text = c.Title
+	p.X.Label.Text = c.XLabel
+	p.Y.Label.Text = c.YLabel
+	p.Title.TextStyle.Font.Size = vg.Points(11)
+	p.X.Label.TextStyle.Font.Size = vg.Points(10)
+	p.Y.Label.TextStyle.Font.Size = vg.Points(10)
+	p.Legend.Top = true
+	p.Legend.TextStyle.Font.Size = vg.Points(9)
+	p.Add(plotter.NewGrid())
+	if c.LogX {
+		p.X.Scale = plot.LogScale{}
+		p.X.Tick.Marker = plot.LogTicks{Prec: -1}
+	}
+	if c.LogY {
+		p.Y.Scale = plot.LogScale{}
+		p.Y.Tick.Marker = plot.LogTicks{Prec: -1}
+	}
+	xmin, xmax := math.Inf(1), math.Inf(-1)
+	ymin, ymax := math.Inf(1), math.Inf(-1)
+	drawn := 0
+	for i, s := range c.Series {
+		var pts plotter.XYs
+		for j := range s.X {
+			x, y := s.X[j], s.Y[j]
+			if math.IsNaN(x) || math.IsInf(x, 0) || math.IsNaN(y) || math.IsInf(y, 0) {
+				continue
+			}
+			if (c.LogX && x <= 0) || (c.LogY && y <= 0) {
+				continue
+			}
+			pts = append(pts, plotter.XY{X: x, Y: y})
+			xmin, xmax = math.Min(xmin, x), math.Max(xmax, x)
+			ymin, ymax = math.Min(ymin, y), math.Max(ymax, y)
+		}
+		if len(pts) < 2 {
+			continue
+		}
+		l, err := plotter.NewLine(pts)
+		if err != nil {
+			return nil, err
+		}
+		l.Color = palette[i%len(palette)]
+		l.Width = vg.Points(1.6)
+		if s.Step {
+			l.StepStyle = plotter.PostStep
+		}
+		if s.Dashed {
+			l.Dashes = []vg.Length{vg.Points(5), vg.Points(3)}
+		}
+		p.Add(l)
+		if s.Name != "" {
+			p.Legend.Add(s.Name, l)
+		}
+		drawn++
+	}
+	if drawn == 0 {
+		return nil, fmt.Errorf("plot %q: no drawable points", c.Title)
+	}
+	for i, m := range c.Marks {
+		if m < xmin || m > xmax || (c.LogX && m <= 0) {
+			continue
+		}
+		l, err := plotter.NewLine(plotter.XYs{{X: m, Y: ymin}, {X: m, Y: ymax}})
+		if err != nil {
+			return nil, err
+		}
+		l.Color = color.Gray{Y: 0x80}
+		l.Dashes = []vg.Length{vg.Points(2), vg.Points(2)}
+		p.Add(l)
+		if i < len(c.MarkNames) {
+			p.Legend.Add(c.MarkNames[i], l)
+		}
+	}
+	return p, nil
+}
+
+const plotW, plotH = 6.4 * vg.Inch, 3.6 * vg.Inch
+
+// SVG draws the chart as an SVG document held in memory.
+func (c chart) SVG() (string, error) {
+	p, err := c.newPlot()
+	if err != nil {
+		return "", err
+	}
+	canvas := vgsvg.NewWith(vgsvg.UseWH(plotW, plotH))
+	p.Draw(draw.New(canvas))
+	var buf bytes.Buffer
+	if _, err := canvas.WriteTo(&buf); err != nil {
+		return "", err
+	}
+	return stripXMLProlog(buf.String()), nil
+}
+
+// PNG draws the chart as a PNG image at dpi (for PDF reports: vgpdf mangles
+// non-ASCII text, vgimg does not).
+func (c chart) PNG(dpi int) ([]byte, error) {
+	p, err := c.newPlot()
+	if err != nil {
+		return nil, err
+	}
+	canvas := vgimg.NewWith(vgimg.UseWH(plotW, plotH), vgimg.UseDPI(dpi))
+	p.Draw(draw.New(canvas))
+	var buf bytes.Buffer
+	if _, err := (vgimg.PngCanvas{Canvas: canvas}).WriteTo(&buf); err != nil {
+		return nil, err
+	}
+	return buf.Bytes(), nil
+}
+
+// stripXMLProlog removes the <?xml …?> line so the SVG can sit inline in
+// HTML.
+func stripXMLProlog(s string) string {
+	if i := bytes.Index([]byte(s), []byte("<svg")); i > 0 {
+		return s[i:]
+	}
+	return s
+}
+
+// volumeChart is the distribution: volume fraction per unit ln d, so that
+// the area under the curve on a log axis is the volume fraction, plus the
+// cumulative volume.
+func volumeChart(r *calc.Result) chart {
+	n := len(r.Bins)
+	xs := make([]float64, 0, n+1)
+	dens := make([]float64, 0, n+1)
+	cumX := make([]float64, 0, n+1)
+	cum := make([]float64, 0, n+1)
+	total := 0.0
+	if n > 0 {
+		cumX = append(cumX, r.Bins[0].DLoM*1e6)
+		cum = append(cum, 0)
+	}
+	for _, b := range r.Bins {
+		w := math.Log(b.DHiM / b.DLoM)
+		xs = append(xs, b.DLoM*1e6)
+		dens = append(dens, b.VolumeFraction/w)
+		total += b.VolumeFraction
+		cumX = append(cumX, b.DHiM*1e6)
+		cum = append(cum, total)
+	}
+	if n > 0 { // close the last step
+		xs = append(xs, r.Bins[n-1].DHiM*1e6)
+		dens = append(dens, dens[len(dens)-1])
+	}
+	return chart{
+		Title:  "Drop sizes by volume",
+		XLabel: "Drop diameter d (µm)",
+		YLabel: "dV/d ln d (–) and cumulative volume fraction (–)",
+		LogX:   true,
+		Series: []series{
+			{Name: "volume per unit ln d", X: xs, Y: dens, Step: true},
+			{Name: "cumulative volume", X: cumX, Y: cum},
+		},
+		Marks:     []float64{r.Summary.D32M * 1e6, r.Summary.Dv50M * 1e6},
+		MarkNames: []string{"D32", "Dv50"},
+	}
+}
+
+// curvatureChart shows how much curvature raises the vapor pressure and the
+// evaporation rate, as ratio − 1 on log-log axes (the ratios themselves sit
+// too close to 1 to read).
+func curvatureChart(r *calc.Result) chart {
+	var d, kr, en []float64
+	for _, b := range r.Bins {
+		d = append(d, b.DM*1e6)
+		kr = append(kr, b.KelvinRatio-1)
+		en = append(en, b.EvaporationEnhancement-1)
+	}
+	c := chart{
+		Title:  "Curvature effect per size class",
+		XLabel: "Drop diameter d (µm)",
+		YLabel: "ratio − 1 (–)",
+		LogX:   true, LogY: true,
+		Series: []series{
+			{Name: "vapor pressure p(r)/p_sat − 1", X: d, Y: kr},
+			{Name: "evaporation rate enhancement − 1", X: d, Y: en, Dashed: true},
+		},
+	}
+	if p := r.Curvature.Enhancement1PctDM; p != nil {
+		c.Marks = append(c.Marks, *p*1e6)
+		c.MarkNames = append(c.MarkNames, "+1 % rate")
+	}
+	if p := r.Curvature.Enhancement10PctDM; p != nil {
+		c.Marks = append(c.Marks, *p*1e6)
+		c.MarkNames = append(c.MarkNames, "+10 % rate")
+	}
+	return c
+}
+
+// historyChart is the spray's evaporated mass fraction and D32 against time.
+func historyChart(r *calc.Result) (chart, bool) {
+	h := r.History
+	if h == nil || len(h.TS) < 2 {
+		return chart{}, false
+	}
+	t := make([]float64, len(h.TS))
+	d32 := make([]float64, len(h.TS))
+	for i := range h.TS {
+		t[i] = h.TS[i] * 1e3
+		d32[i] = h.D32M[i] / r.Summary.D32M
+	}
+	return chart{
+		Title:  "Evaporation history of the spray",
+		XLabel: "Time t (ms)",
+		YLabel: "fraction (–)",
+		LogX:   true,
+		Series: []series{
+			{Name: "mass evaporated", X: t, Y: h.EvaporatedMassFraction},
+			{Name: "D32(t)/D32(0) of remaining drops", X: t, Y: d32, Dashed: true},
+		},
+	}, true
+}

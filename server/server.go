@@ -1,0 +1,183 @@
+// Package server is fogbench's web front: chi routes, page and JSON
+// handlers, plots, and the one place that turns errors into responses.
+package server
+
+import (
+	"bytes"
+	"encoding/json"
+	"io/fs"
+	"log/slog"
+	"net/http"
+	"time"
+
+	"github.com/a-h/templ"
+	"github.com/go-chi/chi/v5"
+	"github.com/go-chi/chi/v5/middleware"
+
+	"fogbench/calc"
+	"fogbench/calc/units"
+	"fogbench/static"
+	"fogbench/store"
+	"fogbench/views"
+)
+
+// MaxBodyBytes bounds every request body (forms, case files, imports).
+const MaxBodyBytes = 8 << 20
+
+// Server holds what the handlers share.
+type Server struct {
+	Store  *store.Store
+	Logger *slog.Logger
+	// Author names the person saving revisions when no account system
+	// says otherwise.
+	Author string
+}
+
+// New returns a server over the store.
+func New(st *store.Store, logger *slog.Logger) *Server {
+	if logger == nil {
+		logger = slog.Default()
+	}
+	return &Server{Store: st, Logger: logger}
+}
+
+// Handler returns the routes, registered in one place.
+func (s *Server) Handler() http.Handler {
+	r := chi.NewRouter()
+	r.Use(middleware.RequestID)
+	r.Use(middleware.ClientIPFromRemoteAddr)
+	r.Use(requestLogger(s.Logger))
+	r.Use(s.recoverer)
+	r.Use(middleware.CleanPath)
+	r.Use(middleware.Timeout(30 * time.Second))
+	r.Use(securityHeaders)
+	r.Use(limitBody(MaxBodyBytes))
+
+	sub, _ := fs.Sub(static.FS, ".")
+	r.Handle("/static/*", http.StripPrefix("/static/", cacheStatic(http.FileServerFS(sub))))
+
+	r.Get("/", func(w http.ResponseWriter, r *http.Request) { http.Redirect(w, r, "/cases", http.StatusFound) })
+	r.Route("/cases", func(r chi.Router) {
+		r.Get("/", s.handleLibrary)
+		r.Post("/", s.handleCaseCreate)
+		r.Get("/new", s.handleCaseNew)
+		r.Post("/preview", s.handleCasePreview)
+		r.Route("/{id}", func(r chi.Router) {
+			r.Get("/", s.handleCaseShow)
+			r.Post("/", s.handleCaseUpdate)
+			r.Get("/edit", s.handleCaseEdit)
+			r.Post("/duplicate", s.handleCaseDuplicate)
+		})
+	})
+	r.Route("/api", func(r chi.Router) {
+		r.Post("/evaluate", s.handleAPIEvaluate)
+		r.Get("/cases", s.handleAPICaseList)
+		r.Post("/cases", s.handleAPICaseCreate)
+		r.Get("/cases/{id}", s.handleAPICaseGet)
+		r.Put("/cases/{id}", s.handleAPICaseUpdate)
+		r.Get("/cases/{id}/file", s.handleAPICaseFile)
+		r.Get("/cases/{id}/revisions", s.handleAPIRevisions)
+	})
+	r.NotFound(func(w http.ResponseWriter, r *http.Request) {
+		s.error(w, r, calc.Errorf(calc.NotFound, "There is no page at %s.", r.URL.Path))
+	})
+	return r
+}
+
+// display is the reader's unit system (a cookie, SI by default).
+func display(r *http.Request) views.Display {
+	if c, err := r.Cookie("units"); err == nil && c.Value == string(units.US) {
+		return views.Display{System: units.US}
+	}
+	return views.Display{System: units.SI}
+}
+
+// render draws a page into a buffer first, so a failing component never
+// leaves half a page on the wire.
+func (s *Server) render(w http.ResponseWriter, r *http.Request, status int, chrome views.Chrome, content templ.Component) {
+	var buf bytes.Buffer
+	if err := views.Layout(chrome, content).Render(r.Context(), &buf); err != nil {
+		s.Logger.Error("render", "path", r.URL.Path, "err", err)
+		http.Error(w, "internal error while drawing the page", http.StatusInternalServerError)
+		return
+	}
+	w.Header().Set("Content-Type", "text/html; charset=utf-8")
+	w.WriteHeader(status)
+	w.Write(buf.Bytes())
+}
+
+// renderFragment draws a component without the layout (htmx swaps).
+func (s *Server) renderFragment(w http.ResponseWriter, r *http.Request, status int, c templ.Component) {
+	var buf bytes.Buffer
+	if err := c.Render(r.Context(), &buf); err != nil {
+		s.Logger.Error("render fragment", "path", r.URL.Path, "err", err)
+		http.Error(w, "internal error while drawing the page", http.StatusInternalServerError)
+		return
+	}
+	w.Header().Set("Content-Type", "text/html; charset=utf-8")
+	w.WriteHeader(status)
+	w.Write(buf.Bytes())
+}
+
+// statusOf maps an error code to its HTTP status.
+func statusOf(err error) int {
+	switch calc.ErrorCode(err) {
+	case calc.Invalid:
+		return http.StatusBadRequest
+	case calc.NotFound:
+		return http.StatusNotFound
+	case calc.Conflict:
+		return http.StatusConflict
+	}
+	if isTooLarge(err) {
+		return http.StatusRequestEntityTooLarge
+	}
+	return http.StatusInternalServerError
+}
+
+// error is the one place a failed request becomes a response: internal
+// faults are logged and shown generically, the rest say what is wrong.
+func (s *Server) error(w http.ResponseWriter, r *http.Request, err error) {
+	status := statusOf(err)
+	msg := calc.ErrorMessage(err)
+	if status == http.StatusRequestEntityTooLarge {
+		msg = "The upload is larger than the limit of 8 MiB."
+	}
+	if status == http.StatusInternalServerError {
+		s.Logger.Error("request failed", "path", r.URL.Path, "request_id", middleware.GetReqID(r.Context()), "err", err)
+	}
+	chrome := views.Chrome{Title: "Error", Display: display(r)}
+	s.render(w, r, status, chrome, views.ErrorPage(status, msg))
+}
+
+// apiError answers a JSON client.
+func (s *Server) apiError(w http.ResponseWriter, r *http.Request, err error) {
+	status := statusOf(err)
+	if status == http.StatusInternalServerError {
+		s.Logger.Error("api request failed", "path", r.URL.Path, "request_id", middleware.GetReqID(r.Context()), "err", err)
+	}
+	body := map[string]any{"error": calc.ErrorMessage(err)}
+	if status == http.StatusRequestEntityTooLarge {
+		body["error"] = "request body is larger than 8 MiB"
+	}
+	if fes := calc.FieldErrors(err); len(fes) > 0 {
+		fields := make([]map[string]string, len(fes))
+		for i, fe := range fes {
+			fields[i] = map[string]string{"field": fe.Field, "message": fe.Message, "value": fe.Value}
+		}
+		body["fields"] = fields
+	}
+	writeJSON(w, status, body)
+}
+
+func writeJSON(w http.ResponseWriter, status int, v any) {
+	data, err := json.Marshal(v)
+	if err != nil {
+		http.Error(w, `{"error":"could not encode the answer"}`, http.StatusInternalServerError)
+		return
+	}
+	w.Header().Set("Content-Type", "application/json")
+	w.WriteHeader(status)
+	w.Write(data)
+	w.Write([]byte("\n"))
+}
