@@ -122,7 +122,7 @@ func TestCreateViewEditCase(t *testing.T) {
 		t.Fatalf("compute error: %s", doc.Find(`[data-testid=compute-error]`).Text())
 	}
 	for _, id := range []string{"plot-volume", "plot-curvature"} {
-		if doc.Find(`[data-testid=` + id + `] svg`).Length() != 1 {
+		if doc.Find(`[data-testid=`+id+`] svg`).Length() != 1 {
 			t.Errorf("plot %s missing", id)
 		}
 	}
@@ -207,7 +207,7 @@ func TestBadInputKeepsForm(t *testing.T) {
 		t.Fatal(err)
 	}
 	for _, f := range []string{"q", "x"} {
-		if doc.Find(`[data-testid=error-` + f + `]`).Length() != 1 {
+		if doc.Find(`[data-testid=error-`+f+`]`).Length() != 1 {
 			t.Errorf("no message beside %s", f)
 		}
 	}

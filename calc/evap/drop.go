@@ -42,7 +42,7 @@ func warningText(flags uint) []string {
 	add(warnASPrSc, "Prandtl or Schmidt number outside 1–3, the fitted range of the Abramzon–Sirignano F(B)")
 	add(warnKelvinSmall, "radius below 5 nm: the Kelvin equation is only indicative there")
 	add(warnContinuumAtHighKn, "Knudsen number above 0.1 with the transition correction off: the continuum rate overstates evaporation")
-	add(warnEnhancementUndefined, "the flat surface does not evaporate here, so the curvature enhancement is undefined (reported as 0)")
+	add(warnEnhancementUndefined, "a flat surface would not evaporate here (it would condense or stay in equilibrium), so the curvature enhancement is undefined (reported as 0)")
 	return w
 }
 
@@ -58,7 +58,7 @@ type DropState struct {
 	MassRate           float64 // evaporation rate, kg/s (> 0 evaporating, < 0 condensing)
 	// Enhancement is the rate with the Kelvin raise over the rate of a flat
 	// surface at the same diameter and surface temperature (1 when Curvature
-	// is off; 0 when the flat rate is zero, with a warning).
+	// is off; 0, with a warning, when the flat surface does not evaporate).
 	Enhancement float64
 	BM, BT      float64 // Spalding mass number and heat number c_p,v (T_∞ − T_s)/L
 
@@ -285,7 +285,7 @@ func (c *Conditions) Drop(d, Ts float64) (DropState, error) {
 		if err != nil {
 			return DropState{}, err
 		}
-		if flat.mdot != 0 {
+		if flat.mdot > 0 {
 			enh = e.mdot / flat.mdot
 		} else {
 			enh = 0
