@@ -2,6 +2,7 @@ package evap
 
 import (
 	"errors"
+	"fmt"
 	"math"
 
 	"fogbench/calc/valid"
@@ -111,7 +112,7 @@ func (c *Conditions) LifetimeReport(d0 float64, opts LifetimeOptions) (LifetimeR
 		return rho * math.Pi * d * d * d / (2 * m)
 	}
 	dmin := d0 * lifetimeSpan
-	t, qerr := integrate(integrand, math.Log(dmin), math.Log(d0), relTol, 0)
+	t, qErrEst, qerr := integrate(integrand, math.Log(dmin), math.Log(d0), relTol, 0)
 	if rate.err != nil {
 		return res, rate.err
 	}
@@ -119,6 +120,12 @@ func (c *Conditions) LifetimeReport(d0 float64, opts LifetimeOptions) (LifetimeR
 	if growth {
 		res.Time = math.Inf(1)
 		return res, nil
+	}
+	if errors.Is(qerr, errQuadrature) && qErrEst <= 1e-6*math.Abs(t) {
+		// Rounding in tiny near-equilibrium rates can stall the error
+		// estimate above a very tight tolerance; 1e-6 is still reported.
+		res.Warnings = append(res.Warnings, fmt.Sprintf("lifetime quadrature reached a relative accuracy of %.1g, not the %.1g asked for", qErrEst/t, relTol))
+		qerr = nil
 	}
 	if qerr != nil {
 		return res, qerr

@@ -63,7 +63,7 @@ func TestQuadrature(t *testing.T) {
 		{"peak", func(x float64) float64 { return 1 / (1e-4 + x*x) }, -1, 1, 2 * math.Atan(100) * 100},
 		{"exp", math.Exp, -20, 5, math.Exp(5) - math.Exp(-20)},
 	} {
-		got, err := integrate(c.f, c.a, c.b, 1e-10, 0)
+		got, _, err := integrate(c.f, c.a, c.b, 1e-10, 0)
 		if err != nil || !scalar.EqualWithinAbsOrRel(got, c.want, 0, 1e-8) {
 			t.Errorf("%s: %.12g (err %v), want %.12g", c.name, got, err, c.want)
 		}

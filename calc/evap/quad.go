@@ -51,8 +51,9 @@ var errQuadrature = errors.New("evap: adaptive quadrature did not reach its tole
 // quadrature (the QUADPACK qag strategy): the interval with the largest
 // error estimate is bisected until the summed estimate is below
 // max(absTol, relTol·|I|). Gauss–Kronrod never evaluates the end points,
-// so integrable end singularities are allowed.
-func integrate(f func(float64) float64, a, b, relTol, absTol float64) (float64, error) {
+// so integrable end singularities are allowed. It also returns the summed
+// error estimate.
+func integrate(f func(float64) float64, a, b, relTol, absTol float64) (float64, float64, error) {
 	type piece struct{ a, b, v, e float64 }
 	const maxPieces = 2000
 	v, e := kronrod15(f, a, b)
@@ -83,12 +84,12 @@ func integrate(f func(float64) float64, a, b, relTol, absTol float64) (float64, 
 		}
 	}
 	if math.IsNaN(total) || math.IsInf(total, 0) {
-		return total, errors.New("evap: integrand is not finite")
+		return total, errSum, errors.New("evap: integrand is not finite")
 	}
 	if errSum > math.Max(absTol, relTol*math.Abs(total)) {
-		return total, errQuadrature
+		return total, errSum, errQuadrature
 	}
-	return total, nil
+	return total, errSum, nil
 }
 
 // Five-point Gauss–Legendre nodes and weights on [−1, 1] (Abramowitz &

@@ -100,7 +100,7 @@ func brentBoil(g func(float64) float64, a, b, ga, gb float64) (float64, bool, er
 // B_M = B_T = c_p,g (T_∞ − T_s)/L (Spalding 1953).
 //
 // The root is bracketed (stepping out from T_∞) and refined by Brent's
-// method to 1e-9 K. The bracket is capped at the flat-surface boiling
+// method to 1e-12 relative. The bracket is capped at the flat-surface boiling
 // point T_b (p_sat(T_b) = p); if the balance has no root below T_b the
 // result is T_b and an error wrapping ErrBoiling. In supersaturated
 // surroundings the drop condenses and the steady temperature lies above T_∞.
@@ -201,7 +201,7 @@ func (c *Conditions) steadyTemperature(d, tHi, guess float64) (float64, error) {
 			step *= 2
 		}
 	}
-	t, err := brent(h, lo, hi, flo, fhi, 1e-9)
+	t, err := brent(h, lo, hi, flo, fhi, 1e-12*hi)
 	if evalErr != nil {
 		return 0, evalErr
 	}
