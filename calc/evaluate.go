@@ -408,7 +408,7 @@ func Evaluate(c Case) (*Result, error) {
 	if refT == 0 {
 		refT = res.Bins[n-1].SurfaceTemperatureK // the large-drop (wet-bulb) limit
 	}
-	res.Curvature = s.curvature(cond, refT, b)
+	res.Curvature = s.curvature(cond, refT)
 	res.Properties = s.properties(refT)
 	if e := s.c.Evaporation; e.MassFlowKgS > 0 {
 		nd, err := sizedist.DropsPerSecond(b, e.MassFlowKgS, s.liquid.Density(refT))
@@ -433,7 +433,7 @@ func evaluationError(err error, d float64) error {
 	return &Error{Code: Internal, Message: "evaluation failed", Err: fmt.Errorf("drop %.4g m: %w", d, err)}
 }
 
-func (s *setup) curvature(cond *evap.Conditions, t float64, b *sizedist.Binned) Curvature {
+func (s *setup) curvature(cond *evap.Conditions, t float64) Curvature {
 	l := s.liquid
 	sigma := l.SurfaceTension(t)
 	vm := l.MolarMass() / l.Density(t)
@@ -442,14 +442,12 @@ func (s *setup) curvature(cond *evap.Conditions, t float64, b *sizedist.Binned) 
 		LaplaceOneAtmDM:       2 * 2 * sigma / phys.StandardAtmosphere,
 		ReferenceTemperatureK: t,
 	}
-	lo, hi := b.Edges[0], b.Edges[len(b.Edges)-1]
 	for _, lv := range []struct {
 		level float64
 		dst   **float64
-	}{{1.01, &c.Enhancement1PctDM}, {1.10, &c.Enhancement10PctDM}} {
-		if d, ok := enhancementThreshold(cond, lv.level, t, lo*1e-3, hi); ok {
-			v := d
-			*lv.dst = &v
+	}{{0.01, &c.Enhancement1PctDM}, {0.10, &c.Enhancement10PctDM}} {
+		if d, err := cond.EnhancementThreshold(lv.level, t); err == nil {
+			*lv.dst = &d
 		}
 	}
 	if r, ok, err := cond.EquilibriumRadius(t); err == nil && ok {
@@ -483,35 +481,34 @@ func (s *setup) properties(t float64) Properties {
 	return p
 }
 
-// history is filled in once calc/evap offers the spray integrator.
+// history follows every class along its own d(t) and sums the spray.
 func (s *setup) history(cond *evap.Conditions, fixedT float64, res *Result) error {
+	b := s.binned
+	d := make([]float64, b.Len())
+	for i := range d {
+		d[i] = b.Diameter(i)
+	}
+	opts := evap.HistoryOptions{SurfaceTemperature: fixedT, MaxTime: s.c.Evaporation.MaxTimeS}
+	if s.c.Heating == "transient" {
+		opts.Transient = true
+		opts.InjectionTemperature = *s.c.InjectionTemperatureK
+		opts.SurfaceTemperature = 0
+	}
+	h, err := cond.History(d, b.Volume, opts)
+	if err != nil {
+		return evaluationError(err, d[len(d)-1])
+	}
+	res.Warnings = append(res.Warnings, h.Warnings...)
+	res.History = &History{TS: h.T, EvaporatedMassFraction: h.EvaporatedMassFraction, D32M: h.D32, Dv50M: h.Dv50}
+	if u := s.c.Evaporation.SprayVelocityMS; u > 0 {
+		res.History.XM = h.Distance(u)
+	}
+	finite := func(v float64) *float64 {
+		if math.IsInf(v, 0) || math.IsNaN(v) {
+			return nil
+		}
+		return &v
+	}
+	res.Summary.T50S, res.Summary.T90S, res.Summary.T99S = finite(h.T50), finite(h.T90), finite(h.T99)
 	return nil
-}
-
-// enhancementThreshold finds the diameter in [lo, hi] below which the
-// curvature raises the evaporation rate by more than level (e.g. 1.01) at
-// surface temperature t, by bisection in ln d: the enhancement falls
-// monotonically with d (Kelvin equation).
-func enhancementThreshold(cond *evap.Conditions, level, t, lo, hi float64) (float64, bool) {
-	enh := func(d float64) float64 {
-		st, err := cond.Drop(d, t)
-		if err != nil {
-			return math.NaN()
-		}
-		return st.Enhancement
-	}
-	flo, fhi := enh(lo), enh(hi)
-	if math.IsNaN(flo) || math.IsNaN(fhi) || flo < level || fhi > level {
-		return 0, false
-	}
-	a, b := math.Log(lo), math.Log(hi)
-	for range 60 {
-		m := 0.5 * (a + b)
-		if enh(math.Exp(m)) > level {
-			a = m
-		} else {
-			b = m
-		}
-	}
-	return math.Exp(0.5 * (a + b)), true
 }

@@ -1,0 +1,88 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"strings"
+	"testing"
+)
+
+func TestEvalCaseFile(t *testing.T) {
+	var out, errb bytes.Buffer
+	code := run([]string{"eval", "testdata/cases/water-rosin-rammler.json"}, nil, &out, &errb)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errb.String())
+	}
+	var res struct {
+		Summary map[string]*float64 `json:"summary"`
+		Bins    []map[string]any    `json:"bins"`
+	}
+	if err := json.Unmarshal(out.Bytes(), &res); err != nil {
+		t.Fatal(err)
+	}
+	for _, k := range []string{"d10_m", "d32_m", "d43_m", "dv10_m", "dv50_m", "dv90_m", "span"} {
+		if v := res.Summary[k]; v == nil || *v <= 0 {
+			t.Errorf("summary %s = %v", k, v)
+		}
+	}
+	if len(res.Bins) != 40 {
+		t.Fatalf("%d bins", len(res.Bins))
+	}
+	for _, k := range []string{"d_lo_m", "d_hi_m", "d_m", "number_fraction", "volume_fraction", "laplace_pa",
+		"vapor_pressure_pa", "kelvin_ratio", "evaporation_enhancement", "lifetime_s"} {
+		if _, ok := res.Bins[0][k]; !ok {
+			t.Errorf("bin field %s missing", k)
+		}
+	}
+}
+
+func TestEvalArrayFromStdin(t *testing.T) {
+	in := strings.NewReader(`[` + strings.Repeat(`{"format":"fogbench-case/1","name":"x","fluid":"water","liquid_temperature_k":300,
+	"gas":{"pressure_pa":101325,"temperature_k":300},"distribution":{"model":"rosin-rammler","x_m":2e-5,"q":3,"bins":10}},`, 2) + `{"format":"fogbench-case/1","name":"y","fluid":"n-decane","liquid_temperature_k":320,
+	"gas":{"pressure_pa":101325,"temperature_k":500},"distribution":{"model":"rosin-rammler","x_m":2e-5,"q":3,"bins":10}}]`)
+	var out, errb bytes.Buffer
+	if code := run([]string{"eval", "-"}, in, &out, &errb); code != 0 {
+		t.Fatalf("exit %d: %s", code, errb.String())
+	}
+	var res []json.RawMessage
+	if err := json.Unmarshal(out.Bytes(), &res); err != nil || len(res) != 3 {
+		t.Fatalf("want an array of 3 results: %v", err)
+	}
+}
+
+// Bad input exits 2 with one line that names the field.
+func TestEvalBadInput(t *testing.T) {
+	cases := []struct {
+		args  []string
+		stdin string
+		field string
+	}{
+		{[]string{"eval", "testdata/cases/bad-q.json"}, "", "distribution.q"},
+		{[]string{"eval"}, `{"format":"fogbench-case/1","name":"n","fluid":"mercury","gas":{"pressure_pa":1e5,"temperature_k":300},"distribution":{"model":"rosin-rammler","x_m":1e-5,"q":2}}`, "fluid"},
+		{[]string{"eval"}, `{"name":"n","fluid":"water","gaz":{}}`, "gaz"},
+		{[]string{"eval"}, `{"name":"n","fluid":"water","gas":{"pressure_pa":"high"}}`, "gas.pressure_pa"},
+		{[]string{"eval"}, `{"name":`, "file"},
+		{[]string{"eval", "no/such/file.json"}, "", "no such file"},
+	}
+	for _, c := range cases {
+		var out, errb bytes.Buffer
+		code := run(c.args, strings.NewReader(c.stdin), &out, &errb)
+		msg := errb.String()
+		if code != 2 || !strings.Contains(msg, c.field) || strings.Count(strings.TrimSpace(msg), "\n") != 0 {
+			t.Errorf("%v %q: exit %d, message %q; want 2 and one line naming %q", c.args, c.stdin, code, msg, c.field)
+		}
+		if out.Len() != 0 {
+			t.Errorf("%v: printed results despite the error", c.args)
+		}
+	}
+}
+
+func TestServeRefusesNonLoopback(t *testing.T) {
+	var errb bytes.Buffer
+	if code := run([]string{"serve", "-addr", "0.0.0.0:0", "-db", t.TempDir() + "/x.db"}, nil, &errb, &errb); code != 2 {
+		t.Fatalf("exit %d: %s", code, errb.String())
+	}
+	if !strings.Contains(errb.String(), "loopback") {
+		t.Fatalf("message %q", errb.String())
+	}
+}
