@@ -8,6 +8,7 @@ import (
 	"io"
 	"strings"
 
+	"fogbench/calc/fluid"
 	"fogbench/calc/valid"
 )
 
@@ -27,6 +28,9 @@ type Case struct {
 	Name   string `json:"name"`
 	Notes  string `json:"notes,omitempty"`
 	Fluid  string `json:"fluid"`
+	// CustomFluid defines a user liquid inside the case, so the case file
+	// stays self-contained; it is used when its id equals Fluid.
+	CustomFluid *fluid.CustomSpec `json:"custom_fluid,omitempty"`
 
 	// LiquidTemperatureK fixes every drop's surface temperature. When nil,
 	// each bin's drop sits at its own solved steady (wet-bulb) temperature.

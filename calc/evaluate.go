@@ -61,7 +61,7 @@ func prepare(c Case) (*setup, error) {
 	} else if len(c.Name) > 200 {
 		add(&valid.FieldError{Field: "name", Message: "must be at most 200 characters"})
 	}
-	l, err := fluid.Lookup(c.Fluid)
+	l, err := LookupLiquid(c)
 	add(err)
 	s.liquid = l
 	g, err := fluid.LookupGas(c.Gas.ID)
@@ -170,6 +170,31 @@ func ambientVapor(g Gas, l *fluid.Liquid) (float64, error) {
 		return x, nil
 	}
 	return 0, nil
+}
+
+// LookupLiquid returns the case's liquid: the user liquid embedded in
+// custom_fluid when its id is the case's fluid, else the built-in liquid of
+// that id. Errors of the embedded definition name "custom_fluid.<field>".
+func LookupLiquid(c Case) (*fluid.Liquid, error) {
+	if c.CustomFluid == nil {
+		return fluid.Lookup(c.Fluid)
+	}
+	if c.CustomFluid.ID != c.Fluid {
+		return nil, &valid.FieldError{Field: "custom_fluid.id", Value: c.CustomFluid.ID,
+			Message: fmt.Sprintf("must equal the case's fluid %q (drop custom_fluid to use a built-in liquid)", c.Fluid)}
+	}
+	l, err := fluid.NewCustomLiquid(*c.CustomFluid)
+	if err != nil {
+		var out valid.Errors
+		for _, fe := range FieldErrors(err) {
+			out = append(out, &valid.FieldError{Field: "custom_fluid." + strings.TrimPrefix(fe.Field, "custom."), Value: fe.Value, Message: fe.Message})
+		}
+		if len(out) == 0 {
+			return nil, err
+		}
+		return nil, out
+	}
+	return l, nil
 }
 
 // renameField puts a helper's field error on the case-file field the user
