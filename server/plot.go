@@ -5,8 +5,11 @@ import (
 	"fmt"
 	"image/color"
 	"math"
+	"regexp"
+	"strings"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
@@ -50,11 +53,13 @@ func (c chart) newPlot() (*plot.Plot, error) {
 	p.Title.Text = c.Title
 	p.X.Label.Text = c.XLabel
 	p.Y.Label.Text = c.YLabel
-	p.Title.TextStyle.Font.Size = vg.Points(11)
-	p.X.Label.TextStyle.Font.Size = vg.Points(10)
-	p.Y.Label.TextStyle.Font.Size = vg.Points(10)
+	p.Title.TextStyle.Font.Size = vg.Points(12)
+	p.X.Label.TextStyle.Font.Size = vg.Points(11)
+	p.Y.Label.TextStyle.Font.Size = vg.Points(11)
+	p.X.Tick.Label.Font.Size = vg.Points(10)
+	p.Y.Tick.Label.Font.Size = vg.Points(10)
 	p.Legend.Top = true
-	p.Legend.TextStyle.Font.Size = vg.Points(9)
+	p.Legend.TextStyle.Font.Size = vg.Points(10)
 	p.Add(plotter.NewGrid())
 	if c.LogX {
 		p.X.Scale = plot.LogScale{}
@@ -137,7 +142,34 @@ func (c chart) SVG() (string, error) {
 	if _, err := canvas.WriteTo(&buf); err != nil {
 		return "", err
 	}
-	return stripXMLProlog(buf.String()), nil
+	return styleToAttributes(stripXMLProlog(buf.String())), nil
+}
+
+var styleAttr = regexp.MustCompile(`\s+style="([^"]*)"`)
+
+// styleToAttributes rewrites gonum's style="k:v;…" attributes as SVG
+// presentation attributes (k="v"), which the page's Content-Security-Policy
+// allows; inline style attributes would be blocked and the plot drawn black.
+func styleToAttributes(svg string) string {
+	return styleAttr.ReplaceAllStringFunc(svg, func(m string) string {
+		decls := styleAttr.FindStringSubmatch(m)[1]
+		var b strings.Builder
+		for _, d := range strings.Split(decls, ";") {
+			k, v, ok := strings.Cut(d, ":")
+			k, v = strings.TrimSpace(k), strings.TrimSpace(v)
+			if !ok || k == "" || strings.ContainsAny(k+v, `"<>&`) {
+				continue
+			}
+			b.WriteString(" " + k + `="` + v + `"`)
+		}
+		return b.String()
+	})
+}
+
+func init() {
+	// Sans-serif plot text to match the pages (Liberation ships with gonum).
+	plot.DefaultFont = font.Font{Typeface: "Liberation", Variant: "Sans"}
+	plotter.DefaultFont = plot.DefaultFont
 }
 
 // PNG draws the chart as a PNG image at dpi (for PDF reports: vgpdf mangles
