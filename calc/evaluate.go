@@ -519,6 +519,26 @@ func (s *setup) history(cond *evap.Conditions, fixedT float64, res *Result) erro
 		opts.InjectionTemperature = *s.c.InjectionTemperatureK
 		opts.SurfaceTemperature = 0
 	}
+	if opts.MaxTime == 0 {
+		// Part of the spray never evaporates (saturated or supersaturated
+		// surroundings): end the history at ten times the longest finite
+		// lifetime, or an hour when none is finite.
+		longest, never := 0.0, false
+		for _, bin := range res.Bins {
+			if bin.LifetimeS == nil {
+				never = true
+			} else {
+				longest = math.Max(longest, *bin.LifetimeS)
+			}
+		}
+		if never {
+			opts.MaxTime = 3600
+			if longest > 0 {
+				opts.MaxTime = 10 * longest
+			}
+			res.Warnings = append(res.Warnings, fmt.Sprintf("Part of the spray never evaporates in these surroundings; the history stops at %.3g s.", opts.MaxTime))
+		}
+	}
 	h, err := cond.History(d, b.Volume, opts)
 	if err != nil {
 		return evaluationError(err, d[len(d)-1])
