@@ -113,7 +113,12 @@ func (c *Conditions) History(diameters, volumeFractions []float64, opts HistoryO
 			return h, err
 		}
 	}
-	h.Warnings = warningText(sp.rate.flags &^ warnKelvinSmall)
+	// Every drop's path to zero size passes radii below 5 nm, and for a
+	// volatile liquid radii where S·p_sat exceeds the gas pressure; those
+	// last nanometres take a negligible share of the lifetime, so the flags
+	// they raise say nothing about the spray. The per-class states report
+	// them where they matter.
+	h.Warnings = warningText(sp.rate.flags &^ (warnKelvinSmall | warnSurfaceCapped))
 	if sp.heldWeight > 0 {
 		h.Warnings = append(h.Warnings, fmt.Sprintf("%.3g %% of the spray volume is in drops that do not evaporate (at or above the Kelvin equilibrium size, or not within the time considered); without transient heating they are held at their initial size (growth is not modelled)", 100*sp.heldWeight))
 	}
