@@ -3,6 +3,7 @@ package atomize
 import (
 	"errors"
 	"fmt"
+	"fogbench/calc/numeric"
 	"math"
 
 	"fogbench/calc/valid"
@@ -45,7 +46,7 @@ const solveScanPoints = 48
 // where it states one, otherwise the usual input range of the family
 // (common practice, no source). The bracket is scanned at 48 log-spaced
 // points for a sign change of value/target − 1, which Brent's method
-// (brentRoot) then refines in ln x to about 1e-13 relative. When several
+// (numeric.Brent) then refines in ln x to about 1e-13 relative. When several
 // sign changes exist the smallest root is returned with a warning. When
 // none exists, Reached is false, Message says so, and Value is the
 // nearest reachable point (the scan minimum of |value/target − 1|, refined
@@ -163,7 +164,7 @@ func Solve(familyID, correlationID string, inputs map[string]float64, props Prop
 			u = us[i]
 		} else {
 			var it int
-			u, it, err = brentRoot(g, us[i-1], us[i], gs[i-1], gs[i], 1e-13, 200)
+			u, it, err = numeric.Brent(g, us[i-1], us[i], gs[i-1], gs[i], 1e-13, 200)
 			sol.Iterations = it
 			if err != nil {
 				return Solution{}, fmt.Errorf("atomize: solve %s: %w", unknown, err)

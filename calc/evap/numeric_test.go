@@ -7,34 +7,6 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 )
 
-// Brent's method on functions with known roots, including a discontinuous
-// one (where it must fall back to bisection) and a flat-ended one.
-func TestBrent(t *testing.T) {
-	for _, c := range []struct {
-		name       string
-		f          func(float64) float64
-		a, b, root float64
-	}{
-		{"cubic", func(x float64) float64 { return x*x*x - 2*x - 5 }, 2, 3, 2.0945514815423265},
-		{"cos", math.Cos, 0, 3, math.Pi / 2},
-		{"step", func(x float64) float64 {
-			if x < 0.3 {
-				return -1
-			}
-			return 1
-		}, 0, 1, 0.3},
-		{"flat", func(x float64) float64 { return math.Pow(x-1, 5) }, 0, 3, 1},
-	} {
-		got, err := brent(c.f, c.a, c.b, c.f(c.a), c.f(c.b), 1e-12)
-		if err != nil || math.Abs(got-c.root) > 1e-6 {
-			t.Errorf("%s: root %.15g (err %v), want %.15g", c.name, got, err, c.root)
-		}
-	}
-	if _, err := brent(math.Exp, 0, 1, 1, math.E, 1e-9); err == nil {
-		t.Error("an unbracketed root must be an error")
-	}
-}
-
 // Gauss–Kronrod weights: K15 must integrate polynomials up to degree 22
 // exactly and G7 up to degree 13; adaptive integration of known integrals.
 func TestQuadrature(t *testing.T) {

@@ -1,4 +1,4 @@
-package atomize
+package numeric
 
 import (
 	"math"
@@ -8,7 +8,7 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 )
 
-func TestBrentRoot(t *testing.T) {
+func TestBrent(t *testing.T) {
 	// Source: closed-form roots (2^(1/3), ln 3, π, 1), outside the project;
 	// tolerance abs or rel 1e-12.
 	const tol = 1e-12
@@ -23,9 +23,10 @@ func TestBrentRoot(t *testing.T) {
 		{"sin x on [3, 4]", math.Sin, 3, 4, math.Pi},
 		{"(x − 1)⁵, flat at the root", func(x float64) float64 { return math.Pow(x-1, 5) }, 0, 3, 1},
 		{"step-like tanh(50(x − 0.3))", func(x float64) float64 { return math.Tanh(50 * (x - 0.3)) }, -1, 1, 0.3},
+		{"x³ − 2x − 5 (Wallis's cubic)", func(x float64) float64 { return x*x*x - 2*x - 5 }, 2, 3, 2.0945514815423265},
 	}
 	for _, c := range cases {
-		x, it, err := brentRoot(c.f, c.a, c.b, c.f(c.a), c.f(c.b), 1e-15, 200)
+		x, it, err := Brent(c.f, c.a, c.b, c.f(c.a), c.f(c.b), 1e-15, 200)
 		if err != nil {
 			t.Errorf("%s: %v", c.name, err)
 			continue
@@ -34,12 +35,23 @@ func TestBrentRoot(t *testing.T) {
 			t.Errorf("%s: got %.17g, want %.17g (%d iterations)", c.name, x, c.want, it)
 		}
 	}
-	if _, _, err := brentRoot(math.Sin, 1, 2, math.Sin(1), math.Sin(2), 1e-12, 100); err != errNotBracketed {
-		t.Errorf("unbracketed interval: got %v, want errNotBracketed", err)
+	// A discontinuous step: Brent must fall back to bisection and close on
+	// the jump at 0.3 to the requested width.
+	step := func(x float64) float64 {
+		if x < 0.3 {
+			return -1
+		}
+		return 1
+	}
+	if x, _, err := Brent(step, 0, 1, -1, 1, 1e-12, 200); err != nil || math.Abs(x-0.3) > 1e-11 {
+		t.Errorf("step: got %v (%v), want 0.3", x, err)
+	}
+	if _, _, err := Brent(math.Sin, 1, 2, math.Sin(1), math.Sin(2), 1e-12, 100); err != ErrNotBracketed {
+		t.Errorf("unbracketed interval: got %v, want ErrNotBracketed", err)
 	}
 }
 
-func TestBrentRootRandomCubics(t *testing.T) {
+func TestBrentRandomCubics(t *testing.T) {
 	// Identity: for random monotone cubics (x − r)((x − r)² + s), s > 0, the
 	// only real root is r; Brent must find it within rel 1e-12 in fewer steps
 	// than bisection would need (about 60).
@@ -48,7 +60,7 @@ func TestBrentRootRandomCubics(t *testing.T) {
 		r := rng.Float64()*10 - 5
 		s := rng.Float64() + 0.01
 		f := func(x float64) float64 { return (x - r) * ((x-r)*(x-r) + s) }
-		x, it, err := brentRoot(f, -10, 10, f(-10), f(10), 1e-15, 200)
+		x, it, err := Brent(f, -10, 10, f(-10), f(10), 1e-15, 200)
 		if err != nil || !scalar.EqualWithinAbsOrRel(x, r, 1e-13, 1e-12) || it > 60 {
 			t.Fatalf("cubic %d: root %.17g, got %.17g in %d iterations (%v)", i, r, x, it, err)
 		}

@@ -1,27 +1,30 @@
-package atomize
+// Package numeric holds the small numerical routines several calc packages
+// share: a bracketed root finder. Each states its method and source.
+package numeric
 
 import (
 	"errors"
 	"math"
 )
 
+// Errors of Brent.
 var (
-	errNotBracketed = errors.New("atomize: root not bracketed")
-	errNoConverge   = errors.New("atomize: root finder did not converge")
+	ErrNotBracketed = errors.New("root not bracketed: f(a) and f(b) have the same sign")
+	ErrNoConverge   = errors.New("root finder did not converge")
 )
 
-// brentRoot finds x in [a, b] with f(x) = 0 by Brent's method (Brent, R. P.,
+// Brent finds x in [a, b] with f(x) = 0 by Brent's method (Brent, R. P.,
 // Algorithms for Minimization without Derivatives, Prentice-Hall 1973,
 // ch. 4, procedure zero): inverse quadratic interpolation or secant steps,
 // falling back to bisection whenever they do not shrink the bracket fast
 // enough, so it converges whenever f is continuous and f(a), f(b) differ in
 // sign. fa and fb are f(a) and f(b). It stops when the bracket is narrower
-// than 4 eps |x| + xtol, or f(x) = 0 exactly. It returns errNotBracketed
-// when fa and fb have the same sign (or either is NaN), and errNoConverge
-// after maxIter steps.
-func brentRoot(f func(float64) float64, a, b, fa, fb, xtol float64, maxIter int) (x float64, iter int, err error) {
+// than 4 eps |x| + xtol, or f(x) = 0 exactly. It returns ErrNotBracketed
+// when fa and fb have the same sign (or either is NaN), and ErrNoConverge
+// after maxIter steps or when f returns NaN.
+func Brent(f func(float64) float64, a, b, fa, fb, xtol float64, maxIter int) (x float64, iter int, err error) {
 	if math.IsNaN(fa) || math.IsNaN(fb) || (fa > 0) == (fb > 0) && fa != 0 && fb != 0 {
-		return 0, 0, errNotBracketed
+		return 0, 0, ErrNotBracketed
 	}
 	if fa == 0 {
 		return a, 0, nil
@@ -89,8 +92,8 @@ func brentRoot(f func(float64) float64, a, b, fa, fb, xtol float64, maxIter int)
 		}
 		fb = f(b)
 		if math.IsNaN(fb) {
-			return b, iter, errNoConverge
+			return b, iter, ErrNoConverge
 		}
 	}
-	return b, maxIter, errNoConverge
+	return b, maxIter, ErrNoConverge
 }
