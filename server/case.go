@@ -118,7 +118,7 @@ func (s *Server) fillResults(r *http.Request, v *views.CaseView) {
 		return
 	}
 	v.Result = res
-	v.Plots = s.plots(res)
+	v.Plots = append(s.distPlots(res, measuredFit(v.Case)), s.plots(res)...)
 }
 
 func (s *Server) plots(res *calc.Result) []views.Plot {
@@ -128,10 +128,14 @@ func (s *Server) plots(res *calc.Result) []views.Plot {
 		ok          bool
 	}
 	hc, hok := historyChart(res)
+	sc, sok := sizeHistoryChart(res)
+	dc, dok := distanceChart(res)
 	specs := []spec{
 		{"volume", "Volume per unit ln d (steps, area = volume fraction) and cumulative volume; dashed lines mark D32 and Dv50.", volumeChart(res), true},
-		{"curvature", "Raise of the vapor pressure by the Kelvin equation and of the evaporation rate, each as ratio − 1, per size class.", curvatureChart(res), true},
-		{"history", "Share of the liquid mass evaporated, and the Sauter mean diameter of the drops still present, against time.", hc, hok},
+		{"curvature", "Raise of the vapor pressure by the Kelvin equation and of the evaporation rate, each as ratio − 1, per size class; dashed lines mark where the rate is raised by 1 % and 10 %.", curvatureChart(res), true},
+		{"history", "Share of the liquid mass evaporated against time; dashed lines mark t50, t90 and t99.", hc, hok},
+		{"sizes", "Sauter mean and volume median diameter of the drops still present against time.", sc, sok},
+		{"distance", "Share of the liquid mass evaporated against distance at the spray velocity.", dc, dok},
 	}
 	var out []views.Plot
 	for _, sp := range specs {

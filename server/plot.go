@@ -268,26 +268,72 @@ func curvatureChart(r *calc.Result) chart {
 	return c
 }
 
-// historyChart is the spray's evaporated mass fraction and D32 against time.
+// historyChart is the share of the spray's mass evaporated against time,
+// with the times to 50, 90 and 99 % marked.
 func historyChart(r *calc.Result) (chart, bool) {
 	h := r.History
 	if h == nil || len(h.TS) < 2 {
 		return chart{}, false
 	}
-	t := make([]float64, len(h.TS))
-	d32 := make([]float64, len(h.TS))
-	for i := range h.TS {
-		t[i] = h.TS[i] * 1e3
-		d32[i] = h.D32M[i] / r.Summary.D32M
-	}
-	return chart{
+	c := chart{
 		Title:  "Evaporation history of the spray",
 		XLabel: "Time t (ms)",
-		YLabel: "fraction (–)",
+		YLabel: "mass evaporated (–)",
+		LogX:   true,
+		Series: []series{{Name: "mass evaporated", X: scaled(h.TS, 1e3), Y: h.EvaporatedMassFraction}},
+	}
+	for _, m := range []struct {
+		name string
+		t    *float64
+	}{{"t50", r.Summary.T50S}, {"t90", r.Summary.T90S}, {"t99", r.Summary.T99S}} {
+		if m.t != nil {
+			c.Marks = append(c.Marks, *m.t*1e3)
+			c.MarkNames = append(c.MarkNames, m.name)
+		}
+	}
+	return c, true
+}
+
+// sizeHistoryChart is D32 and Dv50 of the drops still present against time:
+// both grow as the small drops vanish first.
+func sizeHistoryChart(r *calc.Result) (chart, bool) {
+	h := r.History
+	if h == nil || len(h.TS) < 2 {
+		return chart{}, false
+	}
+	return chart{
+		Title:  "Size of the remaining drops",
+		XLabel: "Time t (ms)",
+		YLabel: "Diameter (µm)",
 		LogX:   true,
 		Series: []series{
-			{Name: "mass evaporated", X: t, Y: h.EvaporatedMassFraction},
-			{Name: "D32(t)/D32(0) of remaining drops", X: t, Y: d32, Dashed: true},
+			{Name: "D32 of remaining drops", X: scaled(h.TS, 1e3), Y: scaled(h.D32M, 1e6)},
+			{Name: "Dv50 of remaining drops", X: scaled(h.TS, 1e3), Y: scaled(h.Dv50M, 1e6), Dashed: true},
 		},
 	}, true
+}
+
+// distanceChart is the evaporated mass against distance travelled at the
+// case's spray velocity.
+func distanceChart(r *calc.Result) (chart, bool) {
+	h := r.History
+	if h == nil || len(h.XM) < 2 {
+		return chart{}, false
+	}
+	return chart{
+		Title:  "Evaporation along the spray",
+		XLabel: "Distance x (mm)",
+		YLabel: "mass evaporated (–)",
+		LogX:   true,
+		Series: []series{{Name: "mass evaporated", X: scaled(h.XM, 1e3), Y: h.EvaporatedMassFraction}},
+	}, true
+}
+
+// scaled returns v multiplied by k, for plotting in display units.
+func scaled(v []float64, k float64) []float64 {
+	out := make([]float64, len(v))
+	for i, x := range v {
+		out[i] = x * k
+	}
+	return out
 }
