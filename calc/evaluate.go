@@ -383,6 +383,9 @@ func Evaluate(c Case) (*Result, error) {
 	res.Summary = Summary{D10M: sum.D10, D20M: sum.D20, D30M: sum.D30, D32M: sum.D32, D43M: sum.D43,
 		Dv10M: sum.Dv10, Dv50M: sum.Dv50, Dv90M: sum.Dv90, Span: sum.RelativeSpan, RelativeSpan: sum.RelativeSpan}
 	res.Warnings = append(res.Warnings, sum.Warnings...)
+	if tl, field, ok := s.superheatedTemperature(); ok {
+		return s.evaluateSuperheated(res, tl, field)
+	}
 
 	fixedT := 0.0
 	if s.c.LiquidTemperatureK != nil {
@@ -434,6 +437,7 @@ func Evaluate(c Case) (*Result, error) {
 		refT = res.Bins[n-1].SurfaceTemperatureK // the large-drop (wet-bulb) limit
 	}
 	res.Curvature = s.curvature(cond, refT)
+	markGrowth(res)
 	res.Properties = s.properties(refT)
 	if e := s.c.Evaporation; e.MassFlowKgS > 0 {
 		nd, err := sizedist.DropsPerSecond(b, e.MassFlowKgS, s.liquid.Density(refT))

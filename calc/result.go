@@ -13,7 +13,11 @@ type Result struct {
 	Properties Properties      `json:"properties"`
 	History    *History        `json:"history,omitempty"`
 	Atomizer   *atomize.Result `json:"atomizer,omitempty"`
-	Warnings   []string        `json:"warnings"`
+	// Superheat is set when the liquid leaves the nozzle at or above its
+	// boiling point at the gas pressure; the evaporation fields are then
+	// not computed (see calc/superheat.go).
+	Superheat *Superheat `json:"superheat,omitempty"`
+	Warnings  []string   `json:"warnings"`
 }
 
 // Summary holds the spray-level figures.
@@ -53,6 +57,9 @@ type BinResult struct {
 	Knudsen                float64  `json:"knudsen"`
 	Regime                 string   `json:"regime"`
 	EvaporationRateKgS     float64  `json:"evaporation_rate_kg_s"`
+	// Grows is set only in supersaturated surroundings: whether the class's
+	// radius exceeds Curvature.KelvinCriticalRadiusM, so its drops grow.
+	Grows *bool `json:"grows,omitempty"`
 }
 
 // Curvature summarises where the Kelvin effect matters for this case.

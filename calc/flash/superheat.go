@@ -163,6 +163,9 @@ func Analyze(l Liquid, T, p float64, opts Options) (Result, error) {
 	r.Jakob = Jakob(l.Density(T), l.HeatCapacity(T), r.DeltaTK, r.VaporDensityKgM3, l.LatentHeat(ts))
 
 	r.Nucleus = nucleation(l, T, p)
+	if !(r.Nucleus.SurfaceTensionNM > 0) {
+		r.Warnings = append(r.Warnings, fmt.Sprintf("the surface tension correlation gives %.3g N/m at %.1f K (its own critical point): classical nucleation figures are not available there", r.Nucleus.SurfaceTensionNM, T))
+	}
 	if tk, err := KineticLimit(l, p, th); err == nil {
 		r.KineticLimitK, r.HasKineticLimit = tk, true
 	}
