@@ -20,6 +20,10 @@ const CaseFormat = "fogbench-case/1"
 // MaxCaseFileBytes bounds a case file (or an array of cases) read by Decode.
 const MaxCaseFileBytes = 8 << 20
 
+// MaxCasesPerFile bounds the cases in one file: each costs up to seconds of
+// evaluation, and one request must not occupy the server for hours.
+const MaxCasesPerFile = 100
+
 // Case is one spray scenario as an engineer enters it: the liquid, the gas it
 // is sprayed into, and the drop-size distribution. All quantities are SI with
 // the unit in the JSON name.
@@ -131,6 +135,10 @@ func Decode(r io.Reader) ([]Case, error) {
 		var raws []json.RawMessage
 		if err := json.Unmarshal(trimmed, &raws); err != nil {
 			return nil, jsonError("", err)
+		}
+		if len(raws) > MaxCasesPerFile {
+			return nil, &valid.FieldError{Field: "file", Value: fmt.Sprint(len(raws)),
+				Message: fmt.Sprintf("holds too many cases; at most %d per file", MaxCasesPerFile)}
 		}
 		cases := make([]Case, len(raws))
 		for i, raw := range raws {

@@ -23,6 +23,17 @@ const (
 	MinGasTempK      = 200.0 // K
 	MaxGasTempK      = 2500.0
 	MaxRelVelocityMS = 500.0
+	MaxNotesBytes    = 64 << 10
+	// Bounds that only keep absurd numbers (1e300 kg/s) out of the
+	// arithmetic; they are far beyond any real spray.
+	MaxSprayVelocityMS = 1000.0
+	MaxMassFlowKgS     = 1e4
+	MaxHistoryTimeS    = 1e7
+	// Drop diameters a case may name: from molecular clusters to drops
+	// far larger than any that survive breakup (common practice, no
+	// source); beyond them the arithmetic overflows.
+	MinDropDiameterM = 1e-9
+	MaxDropDiameterM = 0.1
 	defaultBins      = 40
 )
 
@@ -60,6 +71,9 @@ func prepare(c Case) (*setup, error) {
 		add(&valid.FieldError{Field: "name", Message: "give the case a name"})
 	} else if len(c.Name) > 200 {
 		add(&valid.FieldError{Field: "name", Message: "must be at most 200 characters"})
+	}
+	if len(c.Notes) > MaxNotesBytes {
+		add(&valid.FieldError{Field: "notes", Value: fmt.Sprint(len(c.Notes)), Message: fmt.Sprintf("must be at most %d bytes", MaxNotesBytes)})
 	}
 	l, err := LookupLiquid(c)
 	add(err)
@@ -122,9 +136,9 @@ func checkEvaporation(e Evaporation) error {
 	if e.AccommodationCoef != 0 {
 		errs.Add(valid.Between("evaporation.accommodation_coefficient", e.AccommodationCoef, 1e-4, 1, ""))
 	}
-	errs.Add(valid.NonNegative("evaporation.spray_velocity_m_s", e.SprayVelocityMS))
-	errs.Add(valid.NonNegative("evaporation.mass_flow_kg_s", e.MassFlowKgS))
-	errs.Add(valid.NonNegative("evaporation.max_time_s", e.MaxTimeS))
+	errs.Add(valid.Between("evaporation.spray_velocity_m_s", e.SprayVelocityMS, 0, MaxSprayVelocityMS, "m/s"))
+	errs.Add(valid.Between("evaporation.mass_flow_kg_s", e.MassFlowKgS, 0, MaxMassFlowKgS, "kg/s"))
+	errs.Add(valid.Between("evaporation.max_time_s", e.MaxTimeS, 0, MaxHistoryTimeS, "s"))
 	return errs.Err()
 }
 
@@ -210,7 +224,19 @@ func renameField(err error, field string) error {
 // distribution builds the drop-size classes of a case.
 func distribution(c Case, l *fluid.Liquid, g *fluid.Gas) (*sizedist.Binned, *atomize.Result, []string, error) {
 	d := c.Distribution
+	if err := checkDiameters(d); err != nil {
+		return nil, nil, nil, err
+	}
 	if d.Model == "bins" {
+		// Refuse an absurd class list before any work is done on it.
+		if len(d.EdgesM) > MaxBins+1 {
+			return nil, nil, nil, &valid.FieldError{Field: "distribution.edges_m", Value: fmt.Sprint(len(d.EdgesM)),
+				Message: fmt.Sprintf("too many class edges: at most %d (%d classes)", MaxBins+1, MaxBins)}
+		}
+		if len(d.Fraction) > MaxBins {
+			return nil, nil, nil, &valid.FieldError{Field: "distribution.fraction", Value: fmt.Sprint(len(d.Fraction)),
+				Message: fmt.Sprintf("too many fractions: at most %d", MaxBins)}
+		}
 		b, err := sizedist.FromFractions(d.EdgesM, d.Fraction, sizedist.Basis(d.Basis))
 		if err != nil {
 			return nil, nil, nil, err
@@ -288,6 +314,53 @@ func distribution(c Case, l *fluid.Liquid, g *fluid.Gas) (*sizedist.Binned, *ato
 		return nil, nil, nil, err
 	}
 	return b, at, append(warnings, b.Warnings...), nil
+}
+
+// checkDiameters keeps every diameter a case gives within
+// [MinDropDiameterM, MaxDropDiameterM]; zero means "not given" for the
+// optional ones. NaN and ±Inf are refused by the same comparison.
+func checkDiameters(d Distribution) error {
+	var errs valid.Errors
+	check := func(field string, v float64, optional bool) {
+		if optional && v == 0 {
+			return
+		}
+		if !(v >= MinDropDiameterM && v <= MaxDropDiameterM) {
+			errs = append(errs, valid.Errorf(field, v, "must be between %s and %s m", valid.FormatValue(MinDropDiameterM), valid.FormatValue(MaxDropDiameterM)))
+		}
+	}
+	check("distribution.d_min_m", d.DMinM, true)
+	check("distribution.d_max_m", d.DMaxM, true)
+	check("distribution.d32_m", d.D32M, true)
+	switch d.Model {
+	case "rosin-rammler":
+		if d.D32M == 0 {
+			check("distribution.x_m", d.XM, false)
+		}
+	case "log-normal":
+		if d.D32M == 0 {
+			check("distribution.median_m", d.MedianM, false)
+		}
+	case "upper-limit":
+		check("distribution.d_upper_m", d.DUpperM, false)
+		if d.D32M == 0 {
+			check("distribution.dv50_m", d.Dv50M, false)
+		}
+	case "nukiyama-tanasawa":
+		if d.D32M == 0 {
+			check("distribution.scale_m", d.ScaleM, false)
+		}
+	case "bins":
+		if len(d.EdgesM) <= MaxBins+1 {
+			for _, e := range d.EdgesM {
+				if !(e >= MinDropDiameterM && e <= MaxDropDiameterM) {
+					check("distribution.edges_m", e, false)
+					break
+				}
+			}
+		}
+	}
+	return errs.Err()
 }
 
 // atomizerSMD evaluates the case's nozzle and returns its chosen SMD and the
@@ -369,9 +442,10 @@ func (s *setup) conditions(curvature bool) *evap.Conditions {
 	}
 }
 
-// Evaluate computes a case: classes, per-class curvature and evaporation,
-// the curvature summary, properties used and the spray history.
-func Evaluate(c Case) (*Result, error) {
+// evaluate computes a case: classes, per-class curvature and evaporation,
+// the curvature summary, properties used and the spray history. Evaluate
+// (finite.go) wraps it with the guard against non-finite numbers.
+func evaluate(c Case) (*Result, error) {
 	s, err := prepare(c)
 	if err != nil {
 		return nil, err
@@ -383,9 +457,6 @@ func Evaluate(c Case) (*Result, error) {
 	res.Summary = Summary{D10M: sum.D10, D20M: sum.D20, D30M: sum.D30, D32M: sum.D32, D43M: sum.D43,
 		Dv10M: sum.Dv10, Dv50M: sum.Dv50, Dv90M: sum.Dv90, Span: sum.RelativeSpan, RelativeSpan: sum.RelativeSpan}
 	res.Warnings = append(res.Warnings, sum.Warnings...)
-	if tl, field, ok := s.superheatedTemperature(); ok {
-		return s.evaluateSuperheated(res, tl, field)
-	}
 
 	fixedT := 0.0
 	if s.c.LiquidTemperatureK != nil {
@@ -437,11 +508,10 @@ func Evaluate(c Case) (*Result, error) {
 		refT = res.Bins[n-1].SurfaceTemperatureK // the large-drop (wet-bulb) limit
 	}
 	res.Curvature = s.curvature(cond, refT)
-	markGrowth(res)
 	res.Properties = s.properties(refT)
 	if e := s.c.Evaporation; e.MassFlowKgS > 0 {
 		nd, err := sizedist.DropsPerSecond(b, e.MassFlowKgS, s.liquid.Density(refT))
-		if err == nil {
+		if err == nil && !math.IsInf(nd, 0) && !math.IsNaN(nd) {
 			res.Summary.DropsPerSecond = &nd
 		}
 	}
