@@ -128,10 +128,10 @@ func prepare(c Case) (*setup, error) {
 func checkEvaporation(e Evaporation) error {
 	var errs valid.Errors
 	switch e.Convection {
-	case "", evap.ConvectionRanzMarshall, evap.ConvectionAbramzonSirignano, evap.ConvectionNone:
+	case "", evap.ConvectionRanzMarshall, evap.ConvectionAbramzonSirignano, evap.ConvectionNone, evap.ConvectionFrossling:
 	default:
 		errs = append(errs, &valid.FieldError{Field: "evaporation.convection", Value: e.Convection,
-			Message: `must be "ranz-marshall", "abramzon-sirignano" or "none"`})
+			Message: `must be "ranz-marshall", "frossling", "abramzon-sirignano" or "none"`})
 	}
 	if e.AccommodationCoef != 0 {
 		errs.Add(valid.Between("evaporation.accommodation_coefficient", e.AccommodationCoef, 1e-4, 1, ""))
@@ -457,6 +457,9 @@ func evaluate(c Case) (*Result, error) {
 	res.Summary = Summary{D10M: sum.D10, D20M: sum.D20, D30M: sum.D30, D32M: sum.D32, D43M: sum.D43,
 		Dv10M: sum.Dv10, Dv50M: sum.Dv50, Dv90M: sum.Dv90, Span: sum.RelativeSpan, RelativeSpan: sum.RelativeSpan}
 	res.Warnings = append(res.Warnings, sum.Warnings...)
+	if tl, field, ok := s.superheatedTemperature(); ok {
+		return s.evaluateSuperheated(res, tl, field)
+	}
 
 	fixedT := 0.0
 	if s.c.LiquidTemperatureK != nil {
@@ -493,21 +496,29 @@ func evaluate(c Case) (*Result, error) {
 			EvaporationEnhancement: st.Enhancement, SurfaceTemperatureK: st.SurfaceTemperature,
 			Knudsen: st.Knudsen, Regime: st.Regime, EvaporationRateKgS: st.MassRate,
 		}
-		life, err := cond.LifetimeReport(d, evap.LifetimeOptions{SurfaceTemperature: fixedT})
-		if err != nil {
-			return nil, evaluationError(err, d)
-		}
-		if life.Evaporates && !math.IsInf(life.Time, 0) {
-			t := life.Time
-			bin.LifetimeS = &t
-		}
 		res.Bins[i] = bin
+	}
+	// Every class's lifetime comes from the spray's one shrinkage table,
+	// the same integral LifetimeReport takes per diameter.
+	d := make([]float64, n)
+	for i := range d {
+		d[i] = b.Diameter(i)
+	}
+	spray, err := cond.NewSpray(d, b.Volume, s.historyOptions(fixedT))
+	if err != nil {
+		return nil, evaluationError(err, d[n-1])
+	}
+	for i, t := range spray.Lifetimes() {
+		if !math.IsInf(t, 0) && !math.IsNaN(t) {
+			res.Bins[i].LifetimeS = &t
+		}
 	}
 	refT := fixedT
 	if refT == 0 {
 		refT = res.Bins[n-1].SurfaceTemperatureK // the large-drop (wet-bulb) limit
 	}
 	res.Curvature = s.curvature(cond, refT)
+	markGrowth(res)
 	res.Properties = s.properties(refT)
 	if e := s.c.Evaporation; e.MassFlowKgS > 0 {
 		nd, err := sizedist.DropsPerSecond(b, e.MassFlowKgS, s.liquid.Density(refT))
@@ -515,7 +526,7 @@ func evaluate(c Case) (*Result, error) {
 			res.Summary.DropsPerSecond = &nd
 		}
 	}
-	if err := s.history(cond, fixedT, res); err != nil {
+	if err := s.history(spray, d, res); err != nil {
 		return nil, err
 	}
 	return res, nil
@@ -580,19 +591,20 @@ func (s *setup) properties(t float64) Properties {
 	return p
 }
 
-// history follows every class along its own d(t) and sums the spray.
-func (s *setup) history(cond *evap.Conditions, fixedT float64, res *Result) error {
-	b := s.binned
-	d := make([]float64, b.Len())
-	for i := range d {
-		d[i] = b.Diameter(i)
-	}
+// historyOptions are the case's options for the spray history.
+func (s *setup) historyOptions(fixedT float64) evap.HistoryOptions {
 	opts := evap.HistoryOptions{SurfaceTemperature: fixedT, MaxTime: s.c.Evaporation.MaxTimeS}
 	if s.c.Heating == "transient" {
 		opts.Transient = true
 		opts.InjectionTemperature = *s.c.InjectionTemperatureK
 		opts.SurfaceTemperature = 0
 	}
+	return opts
+}
+
+// history follows every class along its own d(t) and sums the spray.
+func (s *setup) history(spray *evap.Spray, d []float64, res *Result) error {
+	opts := evap.HistoryOptions{MaxTime: s.c.Evaporation.MaxTimeS}
 	if opts.MaxTime == 0 {
 		// Part of the spray never evaporates (saturated or supersaturated
 		// surroundings): end the history at ten times the longest finite
@@ -613,7 +625,7 @@ func (s *setup) history(cond *evap.Conditions, fixedT float64, res *Result) erro
 			res.Warnings = append(res.Warnings, fmt.Sprintf("Part of the spray never evaporates in these surroundings; the history stops at %.3g s.", opts.MaxTime))
 		}
 	}
-	h, err := cond.History(d, b.Volume, opts)
+	h, err := spray.History(opts.MaxTime)
 	if err != nil {
 		return evaluationError(err, d[len(d)-1])
 	}

@@ -63,39 +63,80 @@ func (h History) Distance(u float64) []float64 {
 // Bins that would grow (supersaturated far field, d0 at or above the Kelvin
 // equilibrium size) are held at their initial size with a warning.
 func (c *Conditions) History(diameters, volumeFractions []float64, opts HistoryOptions) (History, error) {
-	var h History
+	s, err := c.NewSpray(diameters, volumeFractions, opts)
+	if err != nil {
+		return History{}, err
+	}
+	return s.History(opts.MaxTime)
+}
+
+// Spray is a spray prepared for History: the options checked and the shared
+// shrinkage table built once, so that the per-bin lifetimes and the history
+// come from the same table (see History).
+type Spray struct {
+	c      *Conditions
+	opts   HistoryOptions
+	steps  int
+	sp     *sprayPaths
+	steady sprayPathsState // the steady paths, restored before each History
+}
+
+// sprayPathsState is the part of sprayPaths that transient heating changes.
+type sprayPathsState struct {
+	life, g0, join, scale, dJoin []float64
+	heldWeight, shortestLife     float64
+}
+
+func (sp *sprayPaths) save() sprayPathsState {
+	cp := func(x []float64) []float64 { return append([]float64(nil), x...) }
+	return sprayPathsState{cp(sp.life), cp(sp.g0), cp(sp.join), cp(sp.scale), cp(sp.dJoin), sp.heldWeight, sp.shortestLife}
+}
+
+func (sp *sprayPaths) restore(s sprayPathsState) {
+	copy(sp.life, s.life)
+	copy(sp.g0, s.g0)
+	copy(sp.join, s.join)
+	copy(sp.scale, s.scale)
+	copy(sp.dJoin, s.dJoin)
+	sp.heldWeight, sp.shortestLife, sp.tr = s.heldWeight, s.shortestLife, nil
+}
+
+// NewSpray checks the bins and options as History does and builds the
+// spray's shared shrinkage table; opts.MaxTime is checked but the horizon
+// is given to Spray.History.
+func (c *Conditions) NewSpray(diameters, volumeFractions []float64, opts HistoryOptions) (*Spray, error) {
 	if err := c.Validate(); err != nil {
-		return h, err
+		return nil, err
 	}
 	w, err := checkBins(diameters, volumeFractions)
 	if err != nil {
-		return h, err
+		return nil, err
 	}
 	steps := opts.Steps
 	if steps == 0 {
 		steps = 200
 	}
 	if steps < 1 || steps > 1000000 {
-		return h, valid.Errorf("history.steps", float64(steps), "must be between 1 and 1000000")
+		return nil, valid.Errorf("history.steps", float64(steps), "must be between 1 and 1000000")
 	}
 	if err := valid.NonNegative("history.max_time_s", opts.MaxTime); err != nil {
-		return h, err
+		return nil, err
 	}
 	tb, _, err := c.boilingTemperature()
 	if err != nil {
-		return h, err
+		return nil, err
 	}
 	if opts.SurfaceTemperature != 0 {
 		if opts.Transient {
-			return h, valid.Errorf("history.surface_temperature_k", opts.SurfaceTemperature, "cannot be fixed when transient heating is on")
+			return nil, valid.Errorf("history.surface_temperature_k", opts.SurfaceTemperature, "cannot be fixed when transient heating is on")
 		}
 		if err := valid.Between("history.surface_temperature_k", opts.SurfaceTemperature, 1, tb, "K (the boiling point)"); err != nil {
-			return h, err
+			return nil, err
 		}
 	}
 	if opts.Transient {
 		if err := valid.Between("history.injection_temperature_k", opts.InjectionTemperature, 1, tb, "K (the boiling point)"); err != nil {
-			return h, err
+			return nil, err
 		}
 	}
 
@@ -106,10 +147,33 @@ func (c *Conditions) History(diameters, volumeFractions []float64, opts HistoryO
 	}
 	sp, err := c.newSprayPaths(diameters, w, opts.SurfaceTemperature, tb, topFactor)
 	if err != nil {
+		return nil, err
+	}
+	return &Spray{c: c, opts: opts, steps: steps, sp: sp, steady: sp.save()}, nil
+}
+
+// Lifetimes returns each bin's quasi-steady lifetime in s at the fixed or
+// steady surface temperature (never the transient path): G(d0) of the
+// shared shrinkage table, the same integral t_life = ∫_0^d0 (ρ_L π d²/2)/ṁ(d) dd
+// that LifetimeReport evaluates per diameter, here by the table's
+// cumulative Gauss–Legendre quadrature and its interpolant between nodes.
+// Bins that do not evaporate (at or above the Kelvin equilibrium size) are
+// +Inf.
+func (s *Spray) Lifetimes() []float64 {
+	return append([]float64(nil), s.steady.life...)
+}
+
+// History follows the spray to the horizon maxTime (s; zero means the time
+// at which 99 % of the mass has evaporated); see Conditions.History.
+func (s *Spray) History(maxTime float64) (History, error) {
+	var h History
+	if err := valid.NonNegative("history.max_time_s", maxTime); err != nil {
 		return h, err
 	}
+	sp, opts, steps := s.sp, s.opts, s.steps
+	sp.restore(s.steady)
 	if opts.Transient {
-		if err := sp.addTransient(opts.InjectionTemperature, opts.MaxTime); err != nil {
+		if err := sp.addTransient(opts.InjectionTemperature, maxTime); err != nil {
 			return h, err
 		}
 	}
@@ -131,7 +195,7 @@ func (c *Conditions) History(diameters, volumeFractions []float64, opts HistoryO
 			h.Warnings = append(h.Warnings, "the spray never reaches "+x.name+" % evaporated; the time is reported as +Inf")
 		}
 	}
-	tEnd := opts.MaxTime
+	tEnd := maxTime
 	if tEnd == 0 {
 		tEnd = h.T99
 		if math.IsInf(tEnd, 1) {
