@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"net/http"
+	"slices"
 	"strconv"
 
 	"github.com/go-chi/chi/v5"
@@ -131,7 +132,6 @@ func (s *Server) plots(res *calc.Result) []views.Plot {
 	sc, sok := sizeHistoryChart(res)
 	dc, dok := distanceChart(res)
 	specs := []spec{
-		{"volume", "Volume per unit ln d (steps, area = volume fraction) and cumulative volume; dashed lines mark D32 and Dv50.", volumeChart(res), true},
 		{"curvature", "Raise of the vapor pressure by the Kelvin equation and of the evaporation rate, each as ratio − 1, per size class; dashed lines mark where the rate is raised by 1 % and 10 %.", curvatureChart(res), true},
 		{"history", "Share of the liquid mass evaporated against time; dashed lines mark t50, t90 and t99.", hc, hok},
 		{"sizes", "Sauter mean and volume median diameter of the drops still present against time.", sc, sok},
@@ -404,6 +404,16 @@ func (s *Server) handleCasePreview(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	v := views.CaseView{Chrome: views.Chrome{Display: display(r)}, Case: c, Flammable: flammable(c.Fluid)}
+	// A case without a name yet can still be computed; the name matters
+	// only when it is saved.
+	errs = slices.DeleteFunc(errs, func(e *valid.FieldError) bool { return e.Field == "name" })
+	if len(errs) == 0 && c.Name == "" {
+		c.Name = "(unsaved)"
+		if err := calc.Validate(c); err != nil {
+			errs = calc.FieldErrors(err)
+		}
+		v.Case = c
+	}
 	if len(errs) > 0 {
 		v.Error = "Not computed yet: " + errs.Error()
 	} else {

@@ -62,6 +62,7 @@ func (s *Server) Handler() http.Handler {
 		r.Post("/", s.handleCaseCreate)
 		r.Get("/new", s.handleCaseNew)
 		r.Post("/preview", s.handleCasePreview)
+		r.Post("/import-preview", s.handleCaseImport)
 		r.Route("/{id}", func(r chi.Router) {
 			r.Get("/", s.handleCaseShow)
 			r.Post("/", s.handleCaseUpdate)
@@ -69,6 +70,7 @@ func (s *Server) Handler() http.Handler {
 			r.Post("/duplicate", s.handleCaseDuplicate)
 		})
 	})
+	r.Post("/settings/units", s.handleUnitsSet)
 	r.Route("/api", func(r chi.Router) {
 		r.Post("/evaluate", s.handleAPIEvaluate)
 		r.Get("/cases", s.handleAPICaseList)
@@ -95,6 +97,9 @@ func display(r *http.Request) views.Display {
 // render draws a page into a buffer first, so a failing component never
 // leaves half a page on the wire.
 func (s *Server) render(w http.ResponseWriter, r *http.Request, status int, chrome views.Chrome, content templ.Component) {
+	if chrome.Back == "" && r.Method == http.MethodGet {
+		chrome.Back = r.URL.RequestURI() // the units switch comes back here
+	}
 	var buf bytes.Buffer
 	if err := views.Layout(chrome, content).Render(r.Context(), &buf); err != nil {
 		s.Logger.Error("render", "path", r.URL.Path, "err", err)

@@ -121,7 +121,7 @@ func TestCreateViewEditCase(t *testing.T) {
 	if doc.Find(`[data-testid=compute-error]`).Length() != 0 {
 		t.Fatalf("compute error: %s", doc.Find(`[data-testid=compute-error]`).Text())
 	}
-	for _, id := range []string{"plot-volume", "plot-curvature"} {
+	for _, id := range []string{"plot-dist-density", "plot-dist-cumulative", "plot-curvature"} {
 		if doc.Find(`[data-testid=`+id+`] svg`).Length() != 1 {
 			t.Errorf("plot %s missing", id)
 		}

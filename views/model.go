@@ -21,6 +21,9 @@ type Chrome struct {
 	Nav     string // "library", "new", "fluids", "compare"
 	Display Display
 	Flash   string // a one-line notice after a redirect
+	// Back is where the units switch returns to (the page's own path and
+	// query); empty sends the browser back by its Referer.
+	Back string
 }
 
 // LibraryView is the case list.
@@ -243,6 +246,7 @@ type FormView struct {
 	Fluids   []Option
 	Gases    []Option
 	Conflict *ConflictInfo // set when the save met a newer revision
+	Import   ImportView    // the measured-data import block
 }
 
 // ConflictInfo points at the revision that beat the user's save.
