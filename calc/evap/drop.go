@@ -96,16 +96,37 @@ type dropEval struct {
 // simplification (no source) that leaves the steady temperature independent
 // of the transition correction.
 func (c *Conditions) evaluate(d, ts float64, curved bool) (dropEval, error) {
+	return c.evaluateAt(d, ts, curved, nil)
+}
+
+// liquidAt holds the liquid properties at one surface temperature, so that
+// a sweep over diameters at a fixed temperature evaluates them once.
+type liquidAt struct {
+	ts, psat, sigma, rhoL, lat float64
+	ok                         bool
+}
+
+// evaluateAt is evaluate with an optional cache of the liquid properties
+// (nil for none); the cache changes no result, only how often the
+// property functions run.
+func (c *Conditions) evaluateAt(d, ts float64, curved bool, cache *liquidAt) (dropEval, error) {
 	var e dropEval
 	l := c.Liquid
 	r := d / 2
-	e.psat = l.SaturationPressure(ts)
-	e.sigma = l.SurfaceTension(ts)
-	e.rhoL = l.Density(ts)
-	e.lat = l.LatentHeat(ts)
 	mv := l.MolarMass()
-	if err := propertyCheck(ts, e.psat, e.sigma, e.rhoL, e.lat, mv); err != nil {
-		return e, err
+	if cache != nil && cache.ok && cache.ts == ts {
+		e.psat, e.sigma, e.rhoL, e.lat = cache.psat, cache.sigma, cache.rhoL, cache.lat
+	} else {
+		e.psat = l.SaturationPressure(ts)
+		e.sigma = l.SurfaceTension(ts)
+		e.rhoL = l.Density(ts)
+		e.lat = l.LatentHeat(ts)
+		if err := propertyCheck(ts, e.psat, e.sigma, e.rhoL, e.lat, mv); err != nil {
+			return e, err
+		}
+		if cache != nil {
+			*cache = liquidAt{ts: ts, psat: e.psat, sigma: e.sigma, rhoL: e.rhoL, lat: e.lat, ok: true}
+		}
 	}
 	e.lk = KelvinLength(e.sigma, mv/e.rhoL, ts)
 	e.s = 1
@@ -275,13 +296,14 @@ func (c *Conditions) Drop(d, Ts float64) (DropState, error) {
 		return DropState{}, valid.Errorf("drop.surface_temperature_k", Ts,
 			"is at or above the boiling point at the gas pressure (p_sat = %s Pa ≥ %s Pa)", valid.FormatValue(ps), valid.FormatValue(c.Pressure))
 	}
-	e, err := c.evaluate(d, Ts, c.Curvature)
+	var liq liquidAt // the curved and flat states share the liquid properties
+	e, err := c.evaluateAt(d, Ts, c.Curvature, &liq)
 	if err != nil {
 		return DropState{}, err
 	}
 	enh := 1.0
 	if c.Curvature {
-		flat, err := c.evaluate(d, Ts, false)
+		flat, err := c.evaluateAt(d, Ts, false, &liq)
 		if err != nil {
 			return DropState{}, err
 		}

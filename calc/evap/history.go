@@ -395,6 +395,10 @@ func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) {
 	for i := range sp.cursor {
 		sp.cursor[i] = -1
 	}
+	if sp.tr == nil && sp.table != nil {
+		sp.sweepSteady(ts, evap, d32, dv50, vol)
+		return
+	}
 	for k, t := range ts {
 		rem, s3, s2 := 0.0, 0.0, 0.0
 		for i := 0; i < n; i++ {
@@ -413,6 +417,66 @@ func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) {
 		evap[k] = math.Max(0, 1-rem)
 		if s2 > 0 {
 			d32[k] = s3 / s2
+		}
+		dv50[k] = volumeMedian(sp.dNow, vol, rem)
+	}
+}
+
+// sweepSteady is sweep without transient heating: every bin that
+// evaporates follows the table from d0, and since G grows with d the bins
+// whose lifetime has passed form a prefix that stays gone. It computes what
+// state does for each bin, with the table lookup inlined.
+func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) {
+	n := len(sp.d0)
+	tb := sp.table
+	v0, last := tb.v[0], len(tb.v)-2
+	gone := 0 // bins [0, gone) have evaporated
+	for k, t := range ts {
+		for gone < n && sp.life[gone] <= t {
+			vol[gone], sp.dNow[gone] = 0, 0
+			gone++
+		}
+		rem, s2 := 0.0, 0.0
+		for i := gone; i < n; i++ {
+			if math.IsInf(sp.life[i], 1) {
+				v := sp.w[i]
+				vol[i], sp.dNow[i] = v, sp.d0[i]
+				rem += v
+				s2 += v / sp.d0[i]
+				continue
+			}
+			tau := sp.g0[i] - t
+			var d float64
+			if tau > 0 {
+				v := math.Log(tau)
+				if v <= v0 {
+					d = math.Exp(tb.u[0] + (v-v0)/tb.p0)
+				} else {
+					j := sp.cursor[i]
+					if j < 0 || j > last || v < tb.v[j] || v > tb.v[j+1] {
+						if j >= 0 && j <= last && v < tb.v[j] {
+							for j > 0 && v < tb.v[j] {
+								j--
+							}
+						} else {
+							j = tb.search(v)
+						}
+					}
+					sp.cursor[i] = j
+					d = math.Exp(tb.lnD(j, v))
+				}
+			}
+			r := d / sp.d0[i]
+			v := sp.w[i] * (r * r * r)
+			vol[i], sp.dNow[i] = v, d
+			rem += v
+			if d > 0 {
+				s2 += v / d
+			}
+		}
+		evap[k] = math.Max(0, 1-rem)
+		if s2 > 0 {
+			d32[k] = rem / s2
 		}
 		dv50[k] = volumeMedian(sp.dNow, vol, rem)
 	}

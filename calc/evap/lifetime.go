@@ -185,6 +185,7 @@ type rateFunc struct {
 	tb, guess float64
 	flags     uint
 	err       error
+	liq       liquidAt // liquid properties at the last surface temperature
 }
 
 func newRateFunc(c *Conditions, fixedTs, tb float64) *rateFunc {
@@ -224,7 +225,7 @@ func (r *rateFunc) at(d float64) (mdot, rhoL float64, err error) {
 		r.err = err
 		return 0, 0, err
 	}
-	e, err := r.c.evaluate(d, t, r.c.Curvature)
+	e, err := r.c.evaluateAt(d, t, r.c.Curvature, &r.liq)
 	if err != nil {
 		r.err = err
 		return 0, 0, err

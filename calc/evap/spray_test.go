@@ -44,3 +44,51 @@ func TestSprayLifetimesMatchLifetimeReport(t *testing.T) {
 		}
 	}
 }
+
+// The steady sweep skips the evaporated bins and inlines the table lookup;
+// it must give exactly what the general per-bin state gives.
+func TestSweepSteadyMatchesState(t *testing.T) {
+	d := make([]float64, 40)
+	w := make([]float64, len(d))
+	for i := range d {
+		d[i] = 1e-6 * math.Pow(300, float64(i)/float64(len(d)-1))
+		x := math.Log(d[i] / 40e-6)
+		w[i] = math.Exp(-x * x)
+	}
+	for _, regime := range benchRegimes {
+		c := benchConditions(regime)
+		s, err := c.NewSpray(d, w, HistoryOptions{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		h, err := s.History(0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		sp := s.sp
+		vol := make([]float64, len(d))
+		now := make([]float64, len(d))
+		for k, tk := range h.T {
+			rem, s3, s2 := 0.0, 0.0, 0.0
+			for i := range d {
+				cur := -1
+				di, f := sp.state(i, tk, &cur)
+				v := sp.w[i] * f
+				vol[i], now[i] = v, di
+				rem += v
+				if di > 0 {
+					s3 += v
+					s2 += v / di
+				}
+			}
+			want := [3]float64{math.Max(0, 1-rem), 0, volumeMedian(now, vol, rem)}
+			if s2 > 0 {
+				want[1] = s3 / s2
+			}
+			got := [3]float64{h.EvaporatedMassFraction[k], h.D32[k], h.Dv50[k]}
+			if got != want {
+				t.Fatalf("%s t[%d] = %g: sweep %v, per-bin state %v", regime, k, tk, got, want)
+			}
+		}
+	}
+}
