@@ -1,0 +1,38 @@
+package main
+
+import (
+	"encoding/json"
+	"io"
+	"testing"
+
+	"fogbench/calc"
+)
+
+var sinkResults []*calc.Result
+
+// BenchmarkBatch is the fogbench side of the batch without process start:
+// evaluate 100 cases of the seeded batch and encode them as `fogbench eval`
+// does. Profile with
+//
+//	go test -run XXX -bench Batch -cpuprofile /tmp/batch.prof ./testdata/bench
+func BenchmarkBatch(b *testing.B) {
+	cases := Batch(100, 1)
+	b.ReportAllocs()
+	for b.Loop() {
+		res := make([]*calc.Result, len(cases))
+		for i, c := range cases {
+			r, err := calc.Evaluate(c)
+			if err != nil {
+				b.Fatal(err)
+			}
+			res[i] = r
+		}
+		enc := json.NewEncoder(io.Discard)
+		enc.SetIndent("", "  ")
+		if err := enc.Encode(res); err != nil {
+			b.Fatal(err)
+		}
+		sinkResults = res
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(len(cases))/1e3, "µs/case")
+}
