@@ -8,6 +8,7 @@
 //	fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db]
 //	fogbench eval [FILE|-]          evaluate case file(s), print results as JSON
 //	fogbench backup -db LIB FILE    consistent copy of a running library
+//	fogbench report ID -o FILE.pdf  PDF report of a stored case
 package main
 
 import (
@@ -23,6 +24,7 @@ import (
 	"net/http"
 	"os"
 	"os/signal"
+	"strconv"
 	"syscall"
 	"time"
 
@@ -49,6 +51,8 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		return evalCmd(args, stdin, stdout, stderr)
 	case "backup":
 		return backupCmd(args, stderr)
+	case "report":
+		return reportCmd(args, stderr)
 	case "help", "-h", "--help":
 		fmt.Fprint(stdout, usage)
 		return 0
@@ -61,6 +65,7 @@ const usage = `usage:
   fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db]
   fogbench eval [FILE|-]            evaluate a case file (one case or an array) and print the results as JSON
   fogbench backup [-db fogbench.db] FILE   write a consistent copy of the library (safe while serving)
+  fogbench report CASE-ID -o FILE.pdf [-db fogbench.db] [-paper a4|letter]   PDF report of a stored case
 `
 
 func serve(args []string, stderr io.Writer) int {
@@ -238,6 +243,65 @@ func backupCmd(args []string, stderr io.Writer) int {
 	defer st.Close()
 	if err := st.Backup(ctx, dest); err != nil {
 		fmt.Fprintf(stderr, "fogbench backup: %v\n", err)
+		return 1
+	}
+	return 0
+}
+
+// reportCmd writes the PDF report of a stored case. The case id may come
+// before or after the flags.
+func reportCmd(args []string, stderr io.Writer) int {
+	fs := flag.NewFlagSet("report", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	dbPath := fs.String("db", "fogbench.db", "SQLite case library")
+	out := fs.String("o", "", "PDF file to write")
+	paper := fs.String("paper", "a4", "paper size: a4 or letter")
+	var pos []string
+	for {
+		if err := fs.Parse(args); err != nil {
+			return 2
+		}
+		if fs.NArg() == 0 {
+			break
+		}
+		pos = append(pos, fs.Arg(0))
+		args = fs.Args()[1:]
+	}
+	if len(pos) != 1 || *out == "" {
+		fmt.Fprintln(stderr, "fogbench report: give one case id and -o FILE.pdf")
+		return 2
+	}
+	id, err := strconv.ParseInt(pos[0], 10, 64)
+	if err != nil || id <= 0 {
+		fmt.Fprintf(stderr, "fogbench report: %q is not a case id\n", pos[0])
+		return 2
+	}
+	if *paper != "a4" && *paper != "letter" {
+		fmt.Fprintf(stderr, "fogbench report: -paper %q: use a4 or letter\n", *paper)
+		return 2
+	}
+	if _, err := os.Stat(*dbPath); err != nil {
+		fmt.Fprintf(stderr, "fogbench report: %v\n", err)
+		return 2
+	}
+	ctx := context.Background()
+	st, err := store.Open(ctx, *dbPath)
+	if err != nil {
+		fmt.Fprintf(stderr, "fogbench report: %v\n", err)
+		return 1
+	}
+	defer st.Close()
+	logger := slog.New(slog.NewTextHandler(stderr, &slog.HandlerOptions{Level: slog.LevelWarn}))
+	var buf bytes.Buffer
+	if err := server.New(st, logger).WriteCaseReportPDF(ctx, &buf, id, *paper); err != nil {
+		fmt.Fprintf(stderr, "fogbench report: %v\n", oneLine(err))
+		if calc.ErrorCode(err) == calc.Internal {
+			return 1
+		}
+		return 2
+	}
+	if err := os.WriteFile(*out, buf.Bytes(), 0o644); err != nil {
+		fmt.Fprintf(stderr, "fogbench report: %v\n", err)
 		return 1
 	}
 	return 0

@@ -2,9 +2,14 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
+
+	"fogbench/store"
 )
 
 func TestEvalCaseFile(t *testing.T) {
@@ -84,5 +89,48 @@ func TestServeRefusesNonLoopback(t *testing.T) {
 	}
 	if !strings.Contains(errb.String(), "loopback") {
 		t.Fatalf("message %q", errb.String())
+	}
+}
+
+func TestReportCommand(t *testing.T) {
+	dir := t.TempDir()
+	db := filepath.Join(dir, "lib.db")
+	st, err := store.Open(context.Background(), db)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := st.SeedDemo(context.Background()); err != nil {
+		t.Fatal(err)
+	}
+	st.Close()
+	out := filepath.Join(dir, "r.pdf")
+	var stdout, stderr bytes.Buffer
+	// The id may come after the flags or before them.
+	if code := run([]string{"report", "-db", db, "2", "-o", out, "-paper", "letter"}, nil, &stdout, &stderr); code != 0 {
+		t.Fatalf("exit %d: %s", code, stderr.String())
+	}
+	data, err := os.ReadFile(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.HasPrefix(data, []byte("%PDF-")) || !bytes.Contains(data, []byte("/MediaBox [0 0 612.00 792.00]")) {
+		t.Fatalf("not a Letter PDF (%d bytes)", len(data))
+	}
+	for _, tc := range []struct {
+		args []string
+		msg  string
+	}{
+		{[]string{"report", "99", "-o", out, "-db", db}, "case 99"},
+		{[]string{"report", "x", "-o", out, "-db", db}, "not a case id"},
+		{[]string{"report", "1", "-db", db}, "-o FILE.pdf"},
+		{[]string{"report", "1", "-o", out, "-db", filepath.Join(dir, "none.db")}, "none.db"},
+	} {
+		stderr.Reset()
+		if code := run(tc.args, nil, &stdout, &stderr); code != 2 || !strings.Contains(stderr.String(), tc.msg) {
+			t.Errorf("%v: exit %d, %q", tc.args, code, stderr.String())
+		}
+	}
+	if _, err := os.Stat(filepath.Join(dir, "none.db")); err == nil {
+		t.Error("report created a library that did not exist")
 	}
 }

@@ -1,0 +1,238 @@
+package server
+
+import (
+	"bytes"
+	"context"
+	"encoding/csv"
+	"fmt"
+	"io"
+	"net/http"
+	"regexp"
+	"strconv"
+	"strings"
+
+	"fogbench/calc"
+	"fogbench/calc/fluid"
+	"fogbench/store"
+	"fogbench/views"
+)
+
+// paperOf reads ?paper=a4|letter; anything else leaves the choice to the
+// print dialog (HTML) or A4 (PDF).
+func paperOf(r *http.Request) string {
+	switch p := strings.ToLower(r.URL.Query().Get("paper")); p {
+	case views.PaperA4, views.PaperLetter:
+		return p
+	}
+	return ""
+}
+
+// reportView evaluates a stored case and lays it out for a report.
+func (s *Server) reportView(r *http.Request, rec store.CaseRecord, d views.Display, paper string) views.ReportView {
+	cv := views.CaseView{
+		Chrome: views.Chrome{Title: rec.Case.Name, Display: d},
+		ID:     rec.ID, Revision: rec.Revision, Case: rec.Case, Author: rec.Author,
+		Updated: rec.UpdatedAt, Tags: rec.Tags, ParentID: rec.ParentID,
+		Inputs: inputFigures(rec.Case, d), Flammable: flammable(rec.Case.Fluid),
+	}
+	s.fillResults(r, &cv)
+	v := views.ReportView{CaseView: cv, Generated: s.Store.Now(), Paper: paper, LiquidName: rec.Case.Fluid, GasName: rec.Case.Gas.ID}
+	if l, err := calc.LookupLiquid(rec.Case); err == nil {
+		v.LiquidName = l.Name
+	}
+	if g, err := fluid.LookupGas(rec.Case.Gas.ID); err == nil {
+		v.GasName = g.Name
+	}
+	return v
+}
+
+// storedCase reads the {id} of the route and loads that case.
+func (s *Server) storedCase(r *http.Request) (store.CaseRecord, error) {
+	id, err := caseID(r)
+	if err != nil {
+		return store.CaseRecord{}, err
+	}
+	return s.Store.GetCase(r.Context(), id)
+}
+
+// handleCaseReport serves GET /cases/{id}/report.
+func (s *Server) handleCaseReport(w http.ResponseWriter, r *http.Request) {
+	rec, err := s.storedCase(r)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	v := s.reportView(r, rec, display(r), paperOf(r))
+	var buf bytes.Buffer
+	if err := views.ReportPage(v).Render(r.Context(), &buf); err != nil {
+		s.error(w, r, &calc.Error{Code: calc.Internal, Message: "could not draw the report", Err: err})
+		return
+	}
+	w.Header().Set("Content-Type", "text/html; charset=utf-8")
+	w.Write(buf.Bytes())
+}
+
+// handleCaseReportPDF serves GET /cases/{id}/report.pdf.
+func (s *Server) handleCaseReportPDF(w http.ResponseWriter, r *http.Request) {
+	rec, err := s.storedCase(r)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	var buf bytes.Buffer
+	if err := s.writeReportPDF(&buf, s.reportView(r, rec, display(r), paperOf(r))); err != nil {
+		s.error(w, r, err)
+		return
+	}
+	w.Header().Set("Content-Type", "application/pdf")
+	w.Header().Set("Content-Disposition", attachment(rec, "report", "pdf"))
+	w.Write(buf.Bytes())
+}
+
+// WriteCaseReportPDF writes the PDF report of a stored case in SI display
+// units: the `fogbench report` command.
+func (s *Server) WriteCaseReportPDF(ctx context.Context, w io.Writer, id int64, paper string) error {
+	rec, err := s.Store.GetCase(ctx, id)
+	if err != nil {
+		return err
+	}
+	r, _ := http.NewRequestWithContext(ctx, http.MethodGet, fmt.Sprintf("/cases/%d/report.pdf", id), nil)
+	v := s.reportView(r, rec, views.Display{}, paper)
+	if v.Error != "" {
+		s.Logger.Warn("case cannot be computed; the report says why", "case", id, "reason", v.Error)
+	}
+	return s.writeReportPDF(w, v)
+}
+
+var unsafeFileRunes = regexp.MustCompile(`[^A-Za-z0-9._-]+`)
+
+// attachment names a download after the case: case-3-r2-nozzle-a-report.pdf.
+func attachment(rec store.CaseRecord, what, ext string) string {
+	slug := strings.Trim(unsafeFileRunes.ReplaceAllString(strings.ToLower(rec.Case.Name), "-"), "-")
+	if len(slug) > 40 {
+		slug = strings.TrimRight(slug[:40], "-")
+	}
+	name := fmt.Sprintf("case-%d-r%d", rec.ID, rec.Revision)
+	if slug != "" {
+		name += "-" + slug
+	}
+	return fmt.Sprintf(`attachment; filename="%s-%s.%s"`, name, what, ext)
+}
+
+// csvText guards a text cell against spreadsheet formulas: a leading =, +,
+// - or @ gets an apostrophe.
+func csvText(s string) string {
+	if s != "" && strings.ContainsRune("=+-@", rune(s[0])) {
+		return "'" + s
+	}
+	return s
+}
+
+// csvNum writes a number at full precision; an absent value is an empty
+// cell.
+func csvNum(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+
+func csvOpt(p *float64, scale float64) string {
+	if p == nil {
+		return ""
+	}
+	return csvNum(*p * scale)
+}
+
+// binsCSVHeader names each per-class column with its unit in parentheses.
+var binsCSVHeader = []string{
+	"d_lo (um)", "d_hi (um)", "d (um)", "number_fraction (-)", "volume_fraction (-)",
+	"laplace_pressure (Pa)", "vapor_pressure (Pa)", "kelvin_ratio (-)", "evaporation_enhancement (-)",
+	"lifetime (s)", "surface_temperature (K)", "knudsen (-)", "regime", "evaporation_rate (kg/s)",
+}
+
+// writeBinsCSV writes one row per size class at full precision.
+func writeBinsCSV(w io.Writer, res *calc.Result) error {
+	cw := csv.NewWriter(w)
+	cw.Write(binsCSVHeader)
+	for _, b := range res.Bins {
+		cw.Write([]string{
+			csvNum(b.DLoM * 1e6), csvNum(b.DHiM * 1e6), csvNum(b.DM * 1e6), csvNum(b.NumberFraction), csvNum(b.VolumeFraction),
+			csvNum(b.LaplacePa), csvNum(b.VaporPressurePa), csvNum(b.KelvinRatio), csvNum(b.EvaporationEnhancement),
+			csvOpt(b.LifetimeS, 1), csvNum(b.SurfaceTemperatureK), csvNum(b.Knudsen), b.Regime, csvNum(b.EvaporationRateKgS),
+		})
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+// summaryCSVHeader: one row per case, so that several cases stack.
+var summaryCSVHeader = []string{
+	"case_id", "revision", "name",
+	"D10 (um)", "D20 (um)", "D30 (um)", "D32 (um)", "D43 (um)", "Dv10 (um)", "Dv50 (um)", "Dv90 (um)", "relative_span (-)",
+	"t50 (s)", "t90 (s)", "t99 (s)", "drops_per_second (1/s)",
+	"kelvin_length (nm)", "d_laplace_1atm (um)", "d_enhancement_1pct (um)", "d_enhancement_10pct (um)", "kelvin_critical_diameter (um)",
+	"reference_temperature (K)", "warnings",
+}
+
+func summaryCSVRow(rec store.CaseRecord, res *calc.Result) []string {
+	s, c := res.Summary, res.Curvature
+	crit := ""
+	if c.KelvinCriticalRadiusM != nil {
+		crit = csvNum(2 * *c.KelvinCriticalRadiusM * 1e6)
+	}
+	return []string{
+		strconv.FormatInt(rec.ID, 10), strconv.Itoa(rec.Revision), csvText(rec.Case.Name),
+		csvNum(s.D10M * 1e6), csvNum(s.D20M * 1e6), csvNum(s.D30M * 1e6), csvNum(s.D32M * 1e6), csvNum(s.D43M * 1e6),
+		csvNum(s.Dv10M * 1e6), csvNum(s.Dv50M * 1e6), csvNum(s.Dv90M * 1e6), csvNum(s.RelativeSpan),
+		csvOpt(s.T50S, 1), csvOpt(s.T90S, 1), csvOpt(s.T99S, 1), csvOpt(s.DropsPerSecond, 1),
+		csvNum(c.KelvinLengthM * 1e9), csvNum(c.LaplaceOneAtmDM * 1e6), csvOpt(c.Enhancement1PctDM, 1e6), csvOpt(c.Enhancement10PctDM, 1e6), crit,
+		csvNum(c.ReferenceTemperatureK), strconv.Itoa(len(res.Warnings)),
+	}
+}
+
+// evaluatedCase loads and computes the case of the route; a case that
+// cannot be computed is a 400 with the reason.
+func (s *Server) evaluatedCase(r *http.Request) (store.CaseRecord, *calc.Result, error) {
+	rec, err := s.storedCase(r)
+	if err != nil {
+		return rec, nil, err
+	}
+	res, err := calc.Evaluate(rec.Case)
+	return rec, res, err
+}
+
+func writeCSV(w http.ResponseWriter, disposition string, body []byte) {
+	w.Header().Set("Content-Type", "text/csv; charset=utf-8")
+	w.Header().Set("Content-Disposition", disposition)
+	w.Write(body)
+}
+
+// handleCaseBinsCSV serves GET /cases/{id}/bins.csv.
+func (s *Server) handleCaseBinsCSV(w http.ResponseWriter, r *http.Request) {
+	rec, res, err := s.evaluatedCase(r)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	var buf bytes.Buffer
+	if err := writeBinsCSV(&buf, res); err != nil {
+		s.error(w, r, err)
+		return
+	}
+	writeCSV(w, attachment(rec, "bins", "csv"), buf.Bytes())
+}
+
+// handleCaseSummaryCSV serves GET /cases/{id}/summary.csv.
+func (s *Server) handleCaseSummaryCSV(w http.ResponseWriter, r *http.Request) {
+	rec, res, err := s.evaluatedCase(r)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	var buf bytes.Buffer
+	cw := csv.NewWriter(&buf)
+	cw.Write(summaryCSVHeader)
+	cw.Write(summaryCSVRow(rec, res))
+	cw.Flush()
+	if err := cw.Error(); err != nil {
+		s.error(w, r, err)
+		return
+	}
+	writeCSV(w, attachment(rec, "summary", "csv"), buf.Bytes())
+}
