@@ -178,6 +178,10 @@ func (s *Server) handleAPICaseUpdate(w http.ResponseWriter, r *http.Request) {
 	dec := json.NewDecoder(r.Body)
 	dec.DisallowUnknownFields()
 	if err := dec.Decode(&body); err != nil {
+		if isTooLarge(err) {
+			s.apiError(w, r, err) // 413 with the limit, not a JSON complaint
+			return
+		}
 		s.apiError(w, r, &valid.FieldError{Field: "file", Message: "expected {\"revision\":N,\"case\":{…}}: " + err.Error()})
 		return
 	}

@@ -6,6 +6,7 @@ import (
 	"log/slog"
 	"net/http"
 	"runtime/debug"
+	"strings"
 	"time"
 
 	"github.com/go-chi/chi/v5/middleware"
@@ -57,10 +58,25 @@ func securityHeaders(next http.Handler) http.Handler {
 	})
 }
 
-// limitBody caps request bodies; handlers see *http.MaxBytesError past it.
-func limitBody(n int64) func(http.Handler) http.Handler {
+// limitBody caps request bodies. A body that declares a larger
+// Content-Length is refused at once with 413 and a message (a page, or
+// JSON for the API) whatever the handler; a chunked body, and a multipart
+// upload (whose handler reads it part by part to keep the fields typed
+// before an oversized file), is cut at n and the handler sees
+// *http.MaxBytesError.
+func (s *Server) limitBody(n int64) func(http.Handler) http.Handler {
 	return func(next http.Handler) http.Handler {
 		return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+			multipart := strings.HasPrefix(r.Header.Get("Content-Type"), "multipart/form-data")
+			if r.ContentLength > n && !multipart {
+				err := &http.MaxBytesError{Limit: n}
+				if wantsJSON(r) {
+					s.apiError(w, r, err)
+				} else {
+					s.error(w, r, err)
+				}
+				return
+			}
 			if r.Body != nil {
 				r.Body = http.MaxBytesReader(w, r.Body, n)
 			}

@@ -31,6 +31,9 @@ type Server struct {
 	// Author names the person saving revisions when no account system
 	// says otherwise.
 	Author string
+	// SecureCookies marks every cookie Secure (newCookie): set it when
+	// serving over TLS.
+	SecureCookies bool
 }
 
 // New returns a server over the store.
@@ -51,7 +54,8 @@ func (s *Server) Handler() http.Handler {
 	r.Use(middleware.CleanPath)
 	r.Use(middleware.Timeout(30 * time.Second))
 	r.Use(securityHeaders)
-	r.Use(limitBody(MaxBodyBytes))
+	r.Use(s.crossOrigin) // CSRF: cross-site POSTs get 403 (csrf.go)
+	r.Use(s.limitBody(MaxBodyBytes))
 
 	sub, _ := fs.Sub(static.FS, ".")
 	r.Handle("/static/*", http.StripPrefix("/static/", cacheStatic(http.FileServerFS(sub))))

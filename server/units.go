@@ -3,6 +3,7 @@ package server
 import (
 	"net/http"
 	"net/url"
+	"time"
 
 	"fogbench/calc"
 	"fogbench/calc/units"
@@ -25,10 +26,7 @@ func (s *Server) handleUnitsSet(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, calc.Errorf(calc.Invalid, "Unknown unit system %q: choose si or us.", string(sys)))
 		return
 	}
-	http.SetCookie(w, &http.Cookie{
-		Name: "units", Value: string(sys), Path: "/", MaxAge: unitsCookieAge,
-		HttpOnly: true, SameSite: http.SameSiteLaxMode,
-	})
+	http.SetCookie(w, s.newCookie("units", string(sys), unitsCookieAge*time.Second))
 	http.Redirect(w, r, backTarget(r), http.StatusSeeOther)
 }
 
