@@ -120,6 +120,7 @@ func (s *Server) fillResults(r *http.Request, v *views.CaseView) {
 	}
 	v.Result = res
 	v.Plots = append(s.distPlots(res, measuredFit(v.Case)), s.plots(res)...)
+	v.SuperheatPlot = s.superheatPlot(v.Case, res)
 }
 
 func (s *Server) plots(res *calc.Result) []views.Plot {

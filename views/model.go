@@ -108,6 +108,9 @@ type CaseView struct {
 	Plots     []Plot
 	Inputs    []Figure
 	Flammable bool // the liquid is a fuel or solvent
+
+	// SuperheatPlot is the p–T diagram of a superheated case, else nil.
+	SuperheatPlot *Plot
 }
 
 // UpdatedText shows the save time.

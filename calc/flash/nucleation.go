@@ -78,7 +78,8 @@ func Barrier(sigma, pv, pl float64) float64 {
 // (AIChE J. 21 (1975) 833–848) with their factor B (≈ 2/3 to 1 for
 // bubbles) set to 1 and the δ = 1 − v_l/v_v correction of the barrier
 // left out (both change the rate far less than a kelvin of superheat does;
-// from memory). J ≥ 0; it is 0 where W is +Inf.
+// from memory). J ≥ 0; it is 0 where W is +Inf or σ ≤ 0 (a surface tension
+// correlation past its own critical point: no nucleus to speak of).
 func NucleationRate(n, m, sigma, w, T float64) float64 {
 	if !(sigma > 0) || math.IsInf(w, 1) {
 		return 0

@@ -199,7 +199,7 @@ func note(r Result) string {
 	}
 	if r.HasKineticLimit {
 		if r.TemperatureK < r.KineticLimitK {
-			s += fmt.Sprintf("Homogeneous nucleation stays negligible below the kinetic limit (%.4g K), so flashing relies on heterogeneous sites. ", r.KineticLimitK)
+			s += "Homogeneous nucleation stays negligible below the kinetic limit of superheat, so flashing relies on heterogeneous sites (walls, dissolved gas, impurities). "
 		} else {
 			s += "The kinetic limit is passed: homogeneous nucleation alone makes the liquid boil explosively. "
 		}
