@@ -5,7 +5,7 @@
 //
 // Usage:
 //
-//	fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db]
+//	fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert C -tls-key K]
 //	fogbench eval [FILE|-]          evaluate case file(s), print results as JSON
 //	fogbench backup -db LIB FILE    consistent copy of a running library
 //	fogbench report ID -o FILE.pdf  PDF report of a stored case
@@ -14,6 +14,7 @@ package main
 import (
 	"bytes"
 	"context"
+	"crypto/tls"
 	"encoding/json"
 	"errors"
 	"flag"
@@ -62,7 +63,7 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 }
 
 const usage = `usage:
-  fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db]
+  fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert CERT.pem -tls-key KEY.pem]
   fogbench eval [FILE|-]            evaluate a case file (one case or an array) and print the results as JSON
   fogbench backup [-db fogbench.db] FILE   write a consistent copy of the library (safe while serving)
   fogbench report CASE-ID -o FILE.pdf [-db fogbench.db] [-paper a4|letter]   PDF report of a stored case
@@ -74,7 +75,14 @@ func serve(args []string, stderr io.Writer) int {
 	addr := fs.String("addr", "127.0.0.1:8080", "address to listen on")
 	dbPath := fs.String("db", "fogbench.db", "SQLite case library (created with demo cases if missing)")
 	verbose := fs.Bool("v", false, "log every request")
+	tlsCert := fs.String("tls-cert", "", "serve HTTPS with this PEM certificate (with -tls-key)")
+	tlsKey := fs.String("tls-key", "", "PEM private key of -tls-cert")
 	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	tlsConfig, err := loadTLS(*tlsCert, *tlsKey)
+	if err != nil {
+		fmt.Fprintf(stderr, "fogbench: %v\n", err)
 		return 2
 	}
 	level := slog.LevelInfo
@@ -93,29 +101,41 @@ func serve(args []string, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "fogbench: %v\n", err)
 		return 1
 	}
-	defer st.Close()
+	defer func() {
+		if err := st.Close(); err != nil {
+			logger.Error("closing the library", "err", err)
+			return
+		}
+		logger.Info("library closed", "db", *dbPath)
+	}()
 	if n, err := st.SeedDemo(ctx); err != nil {
 		fmt.Fprintf(stderr, "fogbench: %v\n", err)
 		return 1
 	} else if n > 0 {
 		logger.Info("new library seeded with demo cases", "db", *dbPath, "cases", n)
 	}
-	srv := &http.Server{
-		Addr:              *addr,
-		Handler:           server.New(st, logger).Handler(),
-		ReadHeaderTimeout: 10 * time.Second,
-		ReadTimeout:       60 * time.Second,
-		WriteTimeout:      60 * time.Second,
-		IdleTimeout:       120 * time.Second,
-	}
+	app := server.New(st, logger)
+	app.SecureCookies = tlsConfig != nil
+	srv := newHTTPServer(*addr, app.Handler())
+	srv.TLSConfig = tlsConfig
 	ln, err := net.Listen("tcp", *addr)
 	if err != nil {
 		fmt.Fprintf(stderr, "fogbench: %v\n", err)
 		return 1
 	}
-	logger.Info("fogbench is serving", "url", "http://"+ln.Addr().String()+"/", "db", *dbPath)
+	scheme := "http"
+	if tlsConfig != nil {
+		scheme = "https"
+	}
+	logger.Info("fogbench is serving", "url", scheme+"://"+ln.Addr().String()+"/", "db", *dbPath)
 	errc := make(chan error, 1)
-	go func() { errc <- srv.Serve(ln) }()
+	go func() {
+		if tlsConfig != nil {
+			errc <- srv.ServeTLS(ln, "", "")
+			return
+		}
+		errc <- srv.Serve(ln)
+	}()
 	select {
 	case err := <-errc:
 		fmt.Fprintf(stderr, "fogbench: %v\n", err)
@@ -130,6 +150,37 @@ func serve(args []string, stderr io.Writer) int {
 		return 1
 	}
 	return 0
+}
+
+// newHTTPServer bounds how long a client may take: a slow client cannot
+// hold a connection open by trickling headers or a body, and idle
+// keep-alive connections are closed.
+func newHTTPServer(addr string, h http.Handler) *http.Server {
+	return &http.Server{
+		Addr:              addr,
+		Handler:           h,
+		ReadHeaderTimeout: 10 * time.Second,
+		ReadTimeout:       60 * time.Second,
+		WriteTimeout:      60 * time.Second,
+		IdleTimeout:       120 * time.Second,
+		MaxHeaderBytes:    64 << 10,
+	}
+}
+
+// loadTLS reads the certificate and key given with -tls-cert and -tls-key;
+// neither means plain HTTP (nil), one without the other is a usage error.
+func loadTLS(certFile, keyFile string) (*tls.Config, error) {
+	if certFile == "" && keyFile == "" {
+		return nil, nil
+	}
+	if certFile == "" || keyFile == "" {
+		return nil, errors.New("give both -tls-cert and -tls-key, or neither")
+	}
+	cert, err := tls.LoadX509KeyPair(certFile, keyFile)
+	if err != nil {
+		return nil, fmt.Errorf("-tls-cert/-tls-key: %v", err)
+	}
+	return &tls.Config{Certificates: []tls.Certificate{cert}, MinVersion: tls.VersionTLS12}, nil
 }
 
 // checkLoopback refuses a non-loopback address: fogbench has no access

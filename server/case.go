@@ -103,7 +103,7 @@ func (s *Server) caseView(r *http.Request, rec store.CaseRecord) views.CaseView 
 		Updated: rec.UpdatedAt, Tags: rec.Tags, ParentID: rec.ParentID,
 		Inputs: inputFigures(rec.Case, d), Flammable: flammable(rec.Case.Fluid),
 	}
-	s.fillResults(r, &v)
+	s.fillStoredResults(r, &v)
 	return v
 }
 

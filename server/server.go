@@ -34,6 +34,10 @@ type Server struct {
 	// SecureCookies marks every cookie Secure (newCookie): set it when
 	// serving over TLS.
 	SecureCookies bool
+
+	// results caches evaluated stored cases and their plots per revision
+	// and unit system (plotcache.go); nil draws every time.
+	results *resultCache
 }
 
 // New returns a server over the store.
@@ -41,7 +45,7 @@ func New(st *store.Store, logger *slog.Logger) *Server {
 	if logger == nil {
 		logger = slog.Default()
 	}
-	return &Server{Store: st, Logger: logger}
+	return &Server{Store: st, Logger: logger, results: newResultCache(resultCacheEntries, resultCacheBytes)}
 }
 
 // Handler returns the routes, registered in one place.
