@@ -1,6 +1,7 @@
 package server
 
 import (
+	"encoding/json"
 	"fmt"
 	"math"
 	"net/url"
@@ -62,6 +63,7 @@ var pathToForm = map[string]string{
 	"evaporation.mass_flow_kg_s":    "mass_flow",
 	"heating":                       "liquid_temperature",
 	"injection_temperature_k":       "liquid_temperature",
+	"custom_fluid":                  "fluid",
 }
 
 func init() {
@@ -78,6 +80,12 @@ func formFor(path, model string) string {
 			return "bins_basis"
 		}
 		return "ln_basis"
+	}
+	if name := atomizerFormField(path); name != "" {
+		return name
+	}
+	if path == "distribution.q" && model == "atomizer" {
+		return "atomizer_q"
 	}
 	if name, ok := pathToForm[path]; ok {
 		return name
@@ -162,6 +170,13 @@ func parseCaseForm(form url.Values) (calc.Case, caseForm) {
 			Spacing: cf.Values["spacing"],
 		},
 		Evaporation: calc.Evaporation{Convection: cf.Values["convection"]},
+	}
+	if raw := cf.Values["custom_fluid_json"]; raw != "" {
+		// The liquid a case defines itself travels through the form as JSON.
+		var spec fluid.CustomSpec
+		if err := json.Unmarshal([]byte(raw), &spec); err == nil && spec.ID == c.Fluid {
+			c.CustomFluid = &spec
+		}
 	}
 	if c.Evaporation.Convection == "ranz-marshall" {
 		c.Evaporation.Convection = "" // the default stays implicit in the file
@@ -251,6 +266,9 @@ func parseCaseForm(form url.Values) (calc.Case, caseForm) {
 		}
 		c.Distribution.Fraction = fr
 	}
+	if c.Distribution.Model == "atomizer" {
+		parseAtomizerDistribution(&c, &cf)
+	}
 	if raw := strings.TrimSpace(cf.Values["mass_flow"]); raw != "" {
 		v, err := parseNumber(raw)
 		u, ok := unitOf("mass_flow", units.MassFlow)
@@ -275,7 +293,7 @@ func parseCaseForm(form url.Values) (calc.Case, caseForm) {
 // at the drop temperature if given, else at 15 °C (common practice for
 // metering fuel by volume, no source).
 func liquidDensity(c calc.Case) (float64, error) {
-	l, err := fluid.Lookup(c.Fluid)
+	l, err := calc.LookupLiquid(c)
 	if err != nil {
 		return 0, err
 	}
@@ -333,6 +351,7 @@ func fillForm(c calc.Case, d views.Display) (valuesMap, valuesMap) {
 		u := units.Default(d.System, units.MassFlow)
 		vals["mass_flow"], us["mass_flow"] = show(u.FromSI(c.Evaporation.MassFlowKgS)), u.Symbol
 	}
+	fillAtomizerForm(c, d, vals, us)
 	if c.Distribution.Model == "bins" {
 		vals["bins_basis"] = c.Distribution.Basis
 		lines := make([]string, len(c.Distribution.EdgesM))

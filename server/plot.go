@@ -35,6 +35,9 @@ type series struct {
 	X, Y   []float64
 	Step   bool // draw as a histogram outline
 	Dashed bool
+	// Color picks palette[Color-1] so that two series (a curve's in-range
+	// and out-of-range parts) share a colour; 0 colours by position.
+	Color int
 }
 
 // chart describes a plot before it is drawn to SVG or PNG.
@@ -94,6 +97,9 @@ func (c chart) newPlot() (*plot.Plot, error) {
 			return nil, err
 		}
 		l.Color = palette[i%len(palette)]
+		if s.Color > 0 {
+			l.Color = palette[(s.Color-1)%len(palette)]
+		}
 		l.Width = vg.Points(1.6)
 		if s.Step {
 			l.StepStyle = plotter.PostStep

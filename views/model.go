@@ -39,6 +39,11 @@ type LibraryView struct {
 	Fluids []Option
 	Page   int
 	Pages  int
+	// Family filters atomizer cases by family; Families and TagOptions
+	// fill the filter selects.
+	Family     string
+	Families   []Option
+	TagOptions []Option
 }
 
 // CaseRow is one line of the library.
@@ -55,6 +60,9 @@ type CaseRow struct {
 // UpdatedText shows the save time in UTC, to the minute.
 func (r CaseRow) UpdatedText() string { return r.Updated.UTC().Format("2006-01-02 15:04 UTC") }
 
+// TagText is the tags as the tag field shows them.
+func (r CaseRow) TagText() string { return strings.Join(r.Tags, ", ") }
+
 // PageURL is the library URL for page p keeping the filters.
 func (v LibraryView) PageURL(p int) string {
 	q := []string{fmt.Sprintf("page=%d", p)}
@@ -69,6 +77,9 @@ func (v LibraryView) PageURL(p int) string {
 	}
 	if v.Sort != "" {
 		q = append(q, "sort="+url.QueryEscape(v.Sort))
+	}
+	if v.Family != "" {
+		q = append(q, "family="+url.QueryEscape(v.Family))
 	}
 	if v.Trash {
 		q = append(q, "trash=1")
@@ -108,6 +119,11 @@ type CaseView struct {
 	Plots     []Plot
 	Inputs    []Figure
 	Flammable bool // the liquid is a fuel or solvent
+	// ReadOnly shows an old revision: no edit actions, a link to the
+	// newest (CurrentRevision) instead.
+	ReadOnly        bool
+	CurrentRevision int
+	Trashed         bool // the case is in the trash
 
 	// SuperheatPlot is the p–T diagram of a superheated case, else nil.
 	SuperheatPlot *Plot
@@ -290,6 +306,7 @@ func (f FormView) Models() []Option {
 		{"log-normal", "Log-normal"},
 		{"upper-limit", "Upper-limit log-normal"},
 		{"nukiyama-tanasawa", "Nukiyama–Tanasawa"},
+		{"atomizer", "From an atomizer (nozzle correlation)"},
 		{"bins", "Measured / typed classes"},
 	}
 }
