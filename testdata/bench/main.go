@@ -53,25 +53,39 @@ func run(n int, seed uint64, runs int, dir, bin, python, script string) error {
 	}
 	cases := Batch(n, seed)
 	batch := filepath.Join(dir, "batch.json")
-	data, err := json.Marshal(cases)
-	if err != nil {
+	if err := writeJSON(batch, cases); err != nil {
 		return err
 	}
-	if err := os.WriteFile(batch, data, 0o644); err != nil {
-		return err
+	// fogbench eval takes at most calc.MaxCasesPerFile cases per file, so
+	// it runs once per chunk (a process start each); the reference reads
+	// the whole batch in one process, its most favourable form.
+	var chunks []string
+	for i := 0; i < n; i += calc.MaxCasesPerFile {
+		f := filepath.Join(dir, fmt.Sprintf("chunk-%03d.json", len(chunks)))
+		if err := writeJSON(f, cases[i:min(n, i+calc.MaxCasesPerFile)]); err != nil {
+			return err
+		}
+		chunks = append(chunks, f)
 	}
 	bins := 0
 	for _, c := range cases {
 		bins += c.Distribution.Bins
 	}
-	fmt.Printf("batch: %d cases (seed %d), %d bins in all, 201 history points each\n", n, seed, bins)
+	fmt.Printf("batch: %d cases (seed %d), %d bins in all, 201 history points each; fogbench in %d processes of <= %d cases, the reference in one\n",
+		n, seed, bins, len(chunks), calc.MaxCasesPerFile)
 
-	fbOut, pyOut := filepath.Join(dir, "fogbench.json"), filepath.Join(dir, "reference.json")
-	tf, err := timeRuns(runs, fbOut, bin, "eval", batch)
+	pyOut := filepath.Join(dir, "reference.json")
+	var fbOuts []string
+	var jobs [][]string
+	for k, c := range chunks {
+		fbOuts = append(fbOuts, filepath.Join(dir, fmt.Sprintf("fogbench-%03d.json", k)))
+		jobs = append(jobs, []string{bin, "eval", c})
+	}
+	tf, err := timeRuns(runs, fbOuts, jobs)
 	if err != nil {
 		return fmt.Errorf("fogbench: %w", err)
 	}
-	tp, err := timeRuns(runs, pyOut, python, script, batch)
+	tp, err := timeRuns(runs, []string{pyOut}, [][]string{{python, script, batch}})
 	if err != nil {
 		return fmt.Errorf("reference: %w", err)
 	}
@@ -85,8 +99,12 @@ func run(n int, seed uint64, runs int, dir, bin, python, script string) error {
 		tp.wall.Seconds()/tf.wall.Seconds(), tp.cpu.Seconds()/tf.cpu.Seconds())
 
 	var fb, py []Result
-	if err := readJSON(fbOut, &fb); err != nil {
-		return err
+	for _, f := range fbOuts {
+		var part []Result
+		if err := readJSON(f, &part); err != nil {
+			return err
+		}
+		fb = append(fb, part...)
 	}
 	if err := readJSON(pyOut, &py); err != nil {
 		return err
@@ -107,27 +125,32 @@ type timing struct {
 	walls     []time.Duration
 }
 
-// timeRuns runs a program runs times with its standard output to outPath and
-// returns the median wall time and the CPU time (user + system) of that run.
-func timeRuns(runs int, outPath, name string, args ...string) (timing, error) {
+// timeRuns runs the jobs (one after another, each with its standard output
+// to its file) runs times and returns the median total wall time and the
+// CPU time (user + system) of that run.
+func timeRuns(runs int, outPaths []string, jobs [][]string) (timing, error) {
 	type one struct{ wall, cpu time.Duration }
 	var all []one
 	for range runs {
-		out, err := os.Create(outPath)
-		if err != nil {
-			return timing{}, err
+		var o one
+		for k, job := range jobs {
+			out, err := os.Create(outPaths[k])
+			if err != nil {
+				return timing{}, err
+			}
+			cmd := exec.Command(job[0], job[1:]...)
+			var stderr bytes.Buffer
+			cmd.Stdout, cmd.Stderr = out, &stderr
+			start := time.Now()
+			err = cmd.Run()
+			o.wall += time.Since(start)
+			out.Close()
+			if err != nil {
+				return timing{}, fmt.Errorf("%v: %s", err, stderr.String())
+			}
+			o.cpu += cmd.ProcessState.UserTime() + cmd.ProcessState.SystemTime()
 		}
-		cmd := exec.Command(name, args...)
-		var stderr bytes.Buffer
-		cmd.Stdout, cmd.Stderr = out, &stderr
-		start := time.Now()
-		err = cmd.Run()
-		wall := time.Since(start)
-		out.Close()
-		if err != nil {
-			return timing{}, fmt.Errorf("%v: %s", err, stderr.String())
-		}
-		all = append(all, one{wall, cmd.ProcessState.UserTime() + cmd.ProcessState.SystemTime()})
+		all = append(all, o)
 	}
 	slices.SortFunc(all, func(a, b one) int { return int(a.wall - b.wall) })
 	m := all[len(all)/2]
@@ -136,6 +159,14 @@ func timeRuns(runs int, outPath, name string, args ...string) (timing, error) {
 		t.walls = append(t.walls, o.wall)
 	}
 	return t, nil
+}
+
+func writeJSON(path string, v any) error {
+	data, err := json.Marshal(v)
+	if err != nil {
+		return err
+	}
+	return os.WriteFile(path, data, 0o644)
 }
 
 func fmtDurations(ds []time.Duration) string {
