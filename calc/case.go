@@ -210,6 +210,34 @@ func (c *Case) Normalize() {
 		c.Distribution.Spacing = "log"
 	}
 	c.Name = strings.TrimSpace(c.Name)
+	c.Distribution.prune()
+}
+
+// prune clears the parameters the chosen model does not read, so a case
+// saved after switching models carries no stale values (they would show in
+// comparisons and diffs as differences that change nothing).
+func (d *Distribution) prune() {
+	keep := Distribution{Model: d.Model}
+	switch d.Model {
+	case "bins":
+		keep.EdgesM, keep.Fraction, keep.Basis = d.EdgesM, d.Fraction, d.Basis
+		*d = keep
+		return
+	case "rosin-rammler":
+		keep.XM, keep.Q, keep.D32M = d.XM, d.Q, d.D32M
+	case "log-normal":
+		keep.MedianM, keep.GSD, keep.Basis, keep.D32M = d.MedianM, d.GSD, d.Basis, d.D32M
+	case "upper-limit":
+		keep.DUpperM, keep.Dv50M, keep.Delta, keep.D32M = d.DUpperM, d.Dv50M, d.Delta, d.D32M
+	case "nukiyama-tanasawa":
+		keep.ScaleM, keep.P, keep.QNT, keep.D32M = d.ScaleM, d.P, d.QNT, d.D32M
+	case "atomizer":
+		keep.Family, keep.Correlation, keep.Inputs, keep.Q = d.Family, d.Correlation, d.Inputs, d.Q
+	default:
+		return // unknown model: leave everything for the validator to report
+	}
+	keep.Bins, keep.DMinM, keep.DMaxM, keep.Spacing = d.Bins, d.DMinM, d.DMaxM, d.Spacing
+	*d = keep
 }
 
 // IsArray reports whether a case file holds a JSON array of cases.

@@ -247,3 +247,25 @@ func TestDecodeReportsFields(t *testing.T) {
 		t.Fatalf("array with BOM: %v %d", err, len(cs))
 	}
 }
+
+// A case saved after switching models keeps only the chosen model's
+// parameters.
+func TestNormalizePrunesOtherModels(t *testing.T) {
+	c := waterCase()
+	c.Distribution.Model = "bins"
+	c.Distribution.EdgesM = []float64{1e-6, 2e-6, 3e-6}
+	c.Distribution.Fraction = []float64{0.4, 0.6}
+	c.Distribution.Basis = "volume"
+	c.Distribution.MedianM = 7e-6
+	c.Normalize()
+	d := c.Distribution
+	if d.XM != 0 || d.Q != 0 || d.Bins != 0 || d.DMinM != 0 || d.MedianM != 0 || len(d.EdgesM) != 3 || d.Basis != "volume" {
+		t.Fatalf("bins case keeps %+v", d)
+	}
+	c = waterCase()
+	c.Distribution.GSD = 1.5
+	c.Normalize()
+	if c.Distribution.GSD != 0 || c.Distribution.XM != 50e-6 || c.Distribution.Bins != 40 {
+		t.Fatalf("rosin-rammler case keeps %+v", c.Distribution)
+	}
+}
