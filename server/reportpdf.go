@@ -47,10 +47,12 @@ var (
 // pdfReport draws one report.
 type pdfReport struct {
 	f      *fpdf.Fpdf
-	v      views.ReportView
-	width  float64 // content width, mm
+	v      views.ReportView // the case the body methods draw
+	width  float64          // content width, mm
 	pageH  float64
 	record func(string) // sees every string drawn (tests check the glyphs)
+	// The running header of the pages that follow.
+	headLeft, headRight string
 }
 
 // chartByID finds the chart behind a plot of the case page, so the PDF
@@ -89,8 +91,18 @@ func (s *Server) writeReportPDF(w io.Writer, v views.ReportView) error {
 // buildReportPDF returns the PDF bytes; record, when not nil, is called with
 // every piece of text drawn.
 func buildReportPDF(v views.ReportView, record func(string)) ([]byte, error) {
+	p := newPDFReport(v.Paper, v.Case.Name+" · fogbench spray report", v.Author, v, record)
+	p.headLeft, p.headRight = v.Case.Name, v.HeaderLine()
+	p.f.AddPage()
+	p.body()
+	return p.output()
+}
+
+// newPDFReport starts a document on A4 (or Letter) with the fonts, margins,
+// metadata, header and footer; v is the case the body methods draw.
+func newPDFReport(paper, title, author string, v views.ReportView, record func(string)) *pdfReport {
 	size := "A4"
-	if v.Paper == views.PaperLetter {
+	if paper == views.PaperLetter {
 		size = "Letter"
 	}
 	f := fpdf.New("P", "mm", size, "")
@@ -102,8 +114,8 @@ func buildReportPDF(v views.ReportView, record func(string)) ([]byte, error) {
 	f.SetAutoPageBreak(true, pdfMarginBot)
 	f.SetCellMargin(0)
 	f.AliasNbPages("{nb}")
-	f.SetTitle(v.Case.Name+" · fogbench spray report", true)
-	f.SetAuthor(v.Author, true)
+	f.SetTitle(title, true)
+	f.SetAuthor(author, true)
 	f.SetCreator("fogbench", true)
 	f.SetCreationDate(v.Generated)
 	f.SetModificationDate(v.Generated)
@@ -112,13 +124,15 @@ func buildReportPDF(v views.ReportView, record func(string)) ([]byte, error) {
 	p := &pdfReport{f: f, v: v, width: pw - 2*pdfMarginX, pageH: ph, record: record}
 	f.SetHeaderFuncMode(p.header, true)
 	f.SetFooterFunc(p.footer)
-	f.AddPage()
-	p.body()
-	if err := f.Error(); err != nil {
+	return p
+}
+
+func (p *pdfReport) output() ([]byte, error) {
+	if err := p.f.Error(); err != nil {
 		return nil, err
 	}
 	var buf bytes.Buffer
-	if err := f.Output(&buf); err != nil {
+	if err := p.f.Output(&buf); err != nil {
 		return nil, err
 	}
 	return buf.Bytes(), nil
@@ -230,9 +244,9 @@ func (p *pdfReport) header() {
 	f := p.f
 	top := 9.0
 	p.font("", 7.5)
-	right := p.v.HeaderLine()
+	right := p.headRight
 	rw := p.textWidth(right)
-	name := p.v.Case.Name
+	name := p.headLeft
 	p.font("B", 7.5)
 	for p.textWidth(name) > p.width-rw-6 && len([]rune(name)) > 4 {
 		r := []rune(name)
@@ -321,7 +335,7 @@ func (p *pdfReport) rowHeight(widths []float64, cells []string, styles []cellSty
 		st := styles[i%len(styles)]
 		p.font(st.style, st.size)
 		if st.right {
-			wrapped[i] = []string{c} // numbers never wrap
+			wrapped[i] = strings.Split(c, "\n") // numbers never wrap
 		} else {
 			wrapped[i] = p.lines(c, widths[i]-2*pad)
 		}
@@ -496,43 +510,47 @@ func (p *pdfReport) body() {
 
 // plots places each chart of the case page as a PNG, whole on one page.
 func (p *pdfReport) plots() {
-	f := p.f
 	first := true
 	fit := measuredFit(p.v.Case)
 	for _, pl := range p.v.Plots {
-		c, ok := chartByID(pl.ID, p.v.Result, fit)
-		if !ok {
-			continue
+		if c, ok := chartByID(pl.ID, p.v.Result, fit); ok {
+			p.plot(pl, c, &first)
 		}
-		png, err := c.PNG(pdfPlotDPI)
-		if err != nil {
-			continue // the page left it out for the same reason
-		}
-		w := p.width
-		h := w * float64(plotH) / float64(plotW)
-		p.font("", 8)
-		caption := p.lines(pl.Caption, w)
-		need := h + float64(len(caption))*3.6 + 4
-		if first {
-			p.need(need + 14) // the heading stays with its first plot
-			p.heading("Plots", "")
-			first = false
-		}
-		p.need(need)
-		name := "plot-" + pl.ID
-		f.RegisterImageOptionsReader(name, fpdf.ImageOptions{ImageType: "PNG"}, bytes.NewReader(png))
-		y := f.GetY()
-		f.ImageOptions(name, pdfMarginX, y, w, h, false, fpdf.ImageOptions{ImageType: "PNG"}, 0, "")
-		f.SetY(y + h + 1)
-		p.font("", 8)
-		p.color(colMuted)
-		for _, l := range caption {
-			y := f.GetY()
-			p.drawText(pdfMarginX, y+2.8, l)
-			f.SetY(y + 3.6)
-		}
-		f.Ln(3)
 	}
+}
+
+// plot draws one chart as PNG across the text width with its caption, on
+// one page; the first one brings the "Plots" heading with it.
+func (p *pdfReport) plot(pl views.Plot, c chart, first *bool) {
+	f := p.f
+	png, err := c.PNG(pdfPlotDPI)
+	if err != nil {
+		return // the page left it out for the same reason
+	}
+	w := p.width
+	h := w * float64(plotH) / float64(plotW)
+	p.font("", 8)
+	caption := p.lines(pl.Caption, w)
+	need := h + float64(len(caption))*3.6 + 4
+	if *first {
+		p.need(need + 14) // the heading stays with its first plot
+		p.heading("Plots", "")
+		*first = false
+	}
+	p.need(need)
+	name := fmt.Sprintf("plot-%d-%s", f.PageNo(), pl.ID)
+	f.RegisterImageOptionsReader(name, fpdf.ImageOptions{ImageType: "PNG"}, bytes.NewReader(png))
+	y := f.GetY()
+	f.ImageOptions(name, pdfMarginX, y, w, h, false, fpdf.ImageOptions{ImageType: "PNG"}, 0, "")
+	f.SetY(y + h + 1)
+	p.font("", 8)
+	p.color(colMuted)
+	for _, l := range caption {
+		y := f.GetY()
+		p.drawText(pdfMarginX, y+2.8, l)
+		f.SetY(y + 3.6)
+	}
+	f.Ln(3)
 }
 
 // binTable is the per-class table, its head repeated on every page and no
