@@ -74,7 +74,7 @@ func (c chart) newPlot() (*plot.Plot, error) {
 	}
 	xmin, xmax := math.Inf(1), math.Inf(-1)
 	ymin, ymax := math.Inf(1), math.Inf(-1)
-	drawn := 0
+	drawn, legendLines := 0, 0
 	for i, s := range c.Series {
 		var pts plotter.XYs
 		for j := range s.X {
@@ -110,6 +110,7 @@ func (c chart) newPlot() (*plot.Plot, error) {
 		p.Add(l)
 		if s.Name != "" {
 			p.Legend.Add(s.Name, l)
+			legendLines++
 		}
 		drawn++
 	}
@@ -129,9 +130,27 @@ func (c chart) newPlot() (*plot.Plot, error) {
 		p.Add(l)
 		if i < len(c.MarkNames) {
 			p.Legend.Add(c.MarkNames[i], l)
+			legendLines++
 		}
 	}
+	headroom(p, c.LogY, ymin, ymax, legendLines)
 	return p, nil
+}
+
+// headroom raises the top of the y axis so the legend, drawn in the top
+// right corner, sits above the data instead of over it: about one tenth of
+// the axis per legend line.
+func headroom(p *plot.Plot, logY bool, ymin, ymax float64, entries int) {
+	if entries == 0 || !(ymax > ymin) {
+		return
+	}
+	f := 0.1 * float64(entries+1)
+	if logY {
+		p.Y.Min, p.Y.Max = ymin, ymax*math.Pow(ymax/ymin, f)
+		return
+	}
+	lo := math.Min(ymin, 0)
+	p.Y.Min, p.Y.Max = lo, ymax+f*(ymax-lo)
 }
 
 const plotW, plotH = 6.4 * vg.Inch, 3.6 * vg.Inch
