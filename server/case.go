@@ -234,6 +234,7 @@ func (s *Server) formView(r *http.Request, title, action string, id int64, rev i
 	if id > 0 {
 		f.Nav = "library"
 	}
+	f.Fluids = append(f.Fluids, s.caseFluidOptions(r, vals)...)
 	for _, e := range errs {
 		name := formFor(e.Field, model)
 		if name == "" {
@@ -252,6 +253,9 @@ func (s *Server) formView(r *http.Request, title, action string, id int64, rev i
 }
 
 func isFormInput(name string) bool {
+	if isAtomizerFormInput(name) {
+		return true
+	}
 	switch name {
 	case "name", "notes", "fluid", "gas", "vapor", "model", "bins", "spacing", "edges", "fractions",
 		"ln_basis", "bins_basis", "convection", "mass_flow":
@@ -274,11 +278,12 @@ func (s *Server) handleCaseNew(w http.ResponseWriter, r *http.Request) {
 
 // readCaseForm parses and validates a submitted case form. It returns the
 // case, the raw form and the errors to show (nil when the case is good).
-func readCaseForm(r *http.Request) (calc.Case, caseForm, valid.Errors, error) {
+func (s *Server) readCaseForm(r *http.Request) (calc.Case, caseForm, valid.Errors, error) {
 	if err := r.ParseForm(); err != nil {
 		return calc.Case{}, caseForm{}, nil, err
 	}
 	c, cf := parseCaseForm(r.PostForm)
+	s.embedCustomFluid(r.Context(), &c)
 	errs := cf.Errors
 	if len(errs) == 0 {
 		// Validate only when every field could be read, so a message about
@@ -296,7 +301,7 @@ func readCaseForm(r *http.Request) (calc.Case, caseForm, valid.Errors, error) {
 
 // handleCaseCreate serves POST /cases.
 func (s *Server) handleCaseCreate(w http.ResponseWriter, r *http.Request) {
-	c, cf, errs, err := readCaseForm(r)
+	c, cf, errs, err := s.readCaseForm(r)
 	if err != nil {
 		s.error(w, r, err)
 		return
@@ -339,7 +344,7 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	c, cf, errs, err := readCaseForm(r)
+	c, cf, errs, err := s.readCaseForm(r)
 	if err != nil {
 		s.error(w, r, err)
 		return
@@ -399,7 +404,7 @@ func (s *Server) handleCaseDuplicate(w http.ResponseWriter, r *http.Request) {
 // handleCasePreview serves POST /cases/preview: the results panel for the
 // form as it stands, swapped in by htmx while the user types.
 func (s *Server) handleCasePreview(w http.ResponseWriter, r *http.Request) {
-	c, _, errs, err := readCaseForm(r)
+	c, _, errs, err := s.readCaseForm(r)
 	if err != nil {
 		s.error(w, r, err)
 		return
