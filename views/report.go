@@ -48,9 +48,23 @@ func (v ReportView) Purpose() string {
 	if gas == "" {
 		gas = c.Gas.ID
 	}
-	return fmt.Sprintf("Estimate the drop sizes, the curvature (Laplace and Kelvin) effects and the evaporation of a %s spray in %s at %s and %s.",
-		strings.ToLower(liquid), strings.ToLower(gas),
+	liquid = strings.ToLower(liquid)
+	return fmt.Sprintf("Estimate the drop sizes, the curvature (Laplace and Kelvin) effects and the evaporation of %s %s spray in %s at %s and %s.",
+		article(liquid), liquid, strings.ToLower(gas),
 		v.Display.Quantity(units.Pressure, c.Gas.PressurePa, 4), v.Display.Quantity(units.Temperature, c.Gas.TemperatureK, 4))
+}
+
+// article is "an" before a vowel sound ("an ethanol", "an n-heptane"),
+// else "a".
+func article(word string) string {
+	if word == "" {
+		return "a"
+	}
+	if strings.ContainsRune("aeiou", rune(word[0])) ||
+		(len(word) > 1 && word[1] == '-' && strings.ContainsRune("fhlmnrsx", rune(word[0]))) {
+		return "an"
+	}
+	return "a"
 }
 
 // PaperClass selects the named page of report.css, or none.
