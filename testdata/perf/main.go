@@ -92,7 +92,7 @@ func run(ncases, workers int, duration time.Duration, steady bool, dir string) e
 			cmd.Process.Kill()
 		}
 	}()
-	base, err := findAddr(io.MultiReader(stdout, stderr))
+	base, err := findAddr(stdout, stderr)
 	if err != nil {
 		return err
 	}
@@ -168,19 +168,21 @@ func seed(db string, n int) ([]int64, error) {
 
 var addrRE = regexp.MustCompile(`http://127\.0\.0\.1:\d+`)
 
-func findAddr(r io.Reader) (string, error) {
-	sc := bufio.NewScanner(r)
+func findAddr(pipes ...io.Reader) (string, error) {
 	found := make(chan string, 1)
-	go func() {
-		for sc.Scan() {
-			if m := addrRE.FindString(sc.Text()); m != "" {
-				select {
-				case found <- m:
-				default:
+	for _, r := range pipes {
+		go func() {
+			sc := bufio.NewScanner(r)
+			for sc.Scan() {
+				if m := addrRE.FindString(sc.Text()); m != "" {
+					select {
+					case found <- m:
+					default:
+					}
 				}
 			}
-		}
-	}()
+		}()
+	}
 	select {
 	case a := <-found:
 		return a, nil
