@@ -112,6 +112,13 @@ func loadMigrations() ([]migration, error) {
 		ms = append(ms, migration{v, name, string(body)})
 	}
 	sort.Slice(ms, func(i, j int) bool { return ms[i].version < ms[j].version })
+	for i := 1; i < len(ms); i++ {
+		// Two files with one number would leave the second silently
+		// unapplied, since the version is what records a migration.
+		if ms[i].version == ms[i-1].version {
+			return nil, fmt.Errorf("store: migrations %04d_%s and %04d_%s share a number", ms[i-1].version, ms[i-1].name, ms[i].version, ms[i].name)
+		}
+	}
 	return ms, nil
 }
 

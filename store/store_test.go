@@ -235,3 +235,16 @@ func TestBackup(t *testing.T) {
 		t.Fatalf("backup holds %d cases", n)
 	}
 }
+
+// The embedded migrations are numbered 1, 2, 3 … without gaps or repeats.
+func TestMigrationNumbersAreUnique(t *testing.T) {
+	ms, err := loadMigrations()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, m := range ms {
+		if m.version != i+1 {
+			t.Fatalf("migration %d is numbered %04d (%s)", i+1, m.version, m.name)
+		}
+	}
+}
