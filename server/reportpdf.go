@@ -273,7 +273,7 @@ func (p *pdfReport) footer() {
 }
 
 func (p *pdfReport) heading(text string, refs string) {
-	p.need(14)
+	p.need(22) // the heading and two rows of what follows
 	p.f.Ln(3)
 	p.font("B", 12)
 	p.color(colInk)
@@ -289,7 +289,7 @@ func (p *pdfReport) heading(text string, refs string) {
 }
 
 func (p *pdfReport) subheading(text, refs string) {
-	p.need(10)
+	p.need(17)
 	p.f.Ln(1.5)
 	p.font("B", 10)
 	p.color(colInk)
@@ -580,9 +580,9 @@ func (p *pdfReport) binTable() {
 		hd := colHead
 		p.tableRow(widths, heads, headStyle, &hd, true, nil)
 	}
-	p.heading(fmt.Sprintf("Per size class (%d classes)", len(v.Result.Bins)), "")
 	hh, _ := p.rowHeight(widths, heads, headStyle, 0.8)
-	p.need(hh + 3*4) // the head never sits alone at a page foot
+	p.need(14 + hh + 3*4) // heading and head never sit alone at a page foot
+	p.heading(fmt.Sprintf("Per size class (%d classes)", len(v.Result.Bins)), "")
 	head()
 	for i, b := range v.BinRows() {
 		var bg *[3]int
@@ -600,6 +600,7 @@ func (p *pdfReport) properties() {
 	p.paragraph(v.LiquidName+" at the reference surface temperature and in the gas film.", "", 8.5, colMuted)
 	p.f.Ln(1)
 	p.figureTable(v.PropertyRows(), false)
+	p.need(12 + 16)
 	p.subheading("Sources of the properties", "")
 	widths := []float64{p.width * 0.22, p.width * 0.33, p.width * 0.45}
 	headStyle := []cellStyle{{"B", 7.5, colInk, false}}
