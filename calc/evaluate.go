@@ -34,7 +34,9 @@ const (
 	// source); beyond them the arithmetic overflows.
 	MinDropDiameterM = 1e-9
 	MaxDropDiameterM = 0.1
-	defaultBins      = 40
+	// DefaultBins is the number of classes a model is cut into when the case
+	// does not say.
+	DefaultBins = 40
 )
 
 // setup is a validated case with its liquid, gas and drop-size classes.
@@ -296,7 +298,7 @@ func distribution(c Case, l *fluid.Liquid, g *fluid.Gas) (*sizedist.Binned, *ato
 	}
 	bins, dmin, dmax := d.Bins, d.DMinM, d.DMaxM
 	if bins == 0 {
-		bins = defaultBins
+		bins = DefaultBins
 	}
 	if bins < 2 || bins > MaxBins {
 		return nil, nil, nil, &valid.FieldError{Field: "distribution.bins", Value: fmt.Sprint(bins),

@@ -27,6 +27,7 @@ func (s *Server) handleLibrary(w http.ResponseWriter, r *http.Request) {
 	opts := store.ListOptions{
 		Query: q.Get("q"), Fluid: q.Get("fluid"), Tag: q.Get("tag"), Sort: q.Get("sort"),
 		Trash: q.Get("trash") == "1", Limit: pageSize, Offset: (page - 1) * pageSize,
+		Family: q.Get("family"),
 	}
 	rows, total, err := s.Store.ListCases(r.Context(), opts)
 	if err != nil {
@@ -37,6 +38,11 @@ func (s *Server) handleLibrary(w http.ResponseWriter, r *http.Request) {
 		Chrome: views.Chrome{Title: "Case library", Nav: "library", Display: display(r), Flash: q.Get("flash")},
 		Total:  total, Query: opts.Query, Fluid: opts.Fluid, Tag: opts.Tag, Sort: opts.Sort, Trash: opts.Trash,
 		Fluids: fluidOptions(), Page: page, Pages: (total + pageSize - 1) / pageSize,
+		Family: opts.Family, Families: familyOptions(),
+	}
+	if v.TagOptions, err = s.tagOptions(r); err != nil {
+		s.error(w, r, err)
+		return
 	}
 	for _, c := range rows {
 		v.Rows = append(v.Rows, views.CaseRow{ID: c.ID, Name: c.Name, Fluid: c.Fluid, Model: modelLabel(c.Model, c.Family),
@@ -100,7 +106,7 @@ func (s *Server) caseView(r *http.Request, rec store.CaseRecord) views.CaseView 
 	v := views.CaseView{
 		Chrome: views.Chrome{Title: rec.Case.Name, Nav: "library", Display: d},
 		ID:     rec.ID, Revision: rec.Revision, Case: rec.Case, Author: rec.Author,
-		Updated: rec.UpdatedAt, Tags: rec.Tags, ParentID: rec.ParentID,
+		Updated: rec.UpdatedAt, Tags: rec.Tags, ParentID: rec.ParentID, Trashed: !rec.DeletedAt.IsZero(),
 		Inputs: inputFigures(rec.Case, d), Flammable: flammable(rec.Case.Fluid),
 	}
 	s.fillStoredResults(r, &v)
@@ -215,11 +221,23 @@ func inputFigures(c calc.Case, d views.Display) []views.Figure {
 		add("Classes", fmt.Sprintf("%d (%s basis)", len(dist.Fraction), dist.Basis))
 	case "atomizer":
 		add("Family", dist.Family)
-		add("Correlation", dist.Correlation)
-		add("q", views.Num(dist.Q, 4))
+		add("Correlation", orText(dist.Correlation, "the family's default"))
+		if dist.Q > 0 {
+			add("q", views.Num(dist.Q, 4))
+		} else {
+			add("q", "the family's typical value")
+		}
 	}
-	if dist.Model != "bins" && dist.Bins > 0 {
-		add("Classes", fmt.Sprintf("%d, %s–%s µm", dist.Bins, views.Micro(dist.DMinM), views.Micro(dist.DMaxM)))
+	if dist.Model != "bins" {
+		n := dist.Bins
+		if n == 0 {
+			n = calc.DefaultBins
+		}
+		rng := "0.1–99.9 % of the volume"
+		if dist.DMinM > 0 && dist.DMaxM > 0 {
+			rng = views.Micro(dist.DMinM) + "–" + views.Micro(dist.DMaxM) + " µm"
+		}
+		add("Classes", fmt.Sprintf("%d, %s", n, rng))
 	}
 	return figs
 }
@@ -368,10 +386,7 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 	rec, err := s.Store.UpdateCase(r.Context(), id, base, c, s.author(r))
 	var ce *store.ConflictError
 	if errors.As(err, &ce) {
-		f := s.formView(r, "Edit "+c.Name, action, id, base, cf.Values, cf.Units, nil, c.Distribution.Model)
-		f.General = ce.Error() + ". Your version is kept in the form below: save it as a new case, or open the current revision and apply your changes there."
-		f.Conflict = &views.ConflictInfo{CurrentRevision: ce.Current.Revision, CurrentURL: fmt.Sprintf("/cases/%d", id)}
-		s.render(w, r, http.StatusConflict, f.Chrome, views.CaseFormPage(f))
+		s.renderConflict(w, r, id, base, c, ce, "") // revision.go: both versions, merge or copy
 		return
 	}
 	if err != nil {
@@ -431,11 +446,18 @@ func (s *Server) handleCasePreview(w http.ResponseWriter, r *http.Request) {
 // author names who saved a revision: the name the user set (cookie), else
 // the server's default.
 func (s *Server) author(r *http.Request) string {
-	if c, err := r.Cookie("author"); err == nil && c.Value != "" && len(c.Value) <= 60 {
-		return c.Value
+	if name := authorFromCookie(r); name != "" { // auth.go sets it
+		return name
 	}
 	if s.Author != "" {
 		return s.Author
 	}
 	return "local user"
+}
+
+func orText(s, alt string) string {
+	if s == "" {
+		return alt
+	}
+	return s
 }
