@@ -144,9 +144,11 @@ func headroom(p *plot.Plot, logY bool, ymin, ymax float64, entries int) {
 	if entries == 0 || !(ymax > ymin) {
 		return
 	}
-	f := 0.1 * float64(entries+1)
+	// Capped, so a legend of many entries (a dozen liquids) does not squash
+	// the data into the bottom of the plot.
+	f := math.Min(0.1*float64(entries+1), 0.5)
 	if logY {
-		p.Y.Min, p.Y.Max = ymin, ymax*math.Pow(ymax/ymin, f)
+		p.Y.Min, p.Y.Max = ymin, ymax*math.Pow(ymax/ymin, math.Min(f, 0.3))
 		return
 	}
 	lo := math.Min(ymin, 0)
