@@ -8,6 +8,7 @@
 //	fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert C -tls-key K]
 //	fogbench eval [FILE|-]          evaluate case file(s), print results as JSON
 //	fogbench backup -db LIB FILE    consistent copy of a running library
+//	fogbench restore FILE -db LIB   replace a library with a checked backup
 //	fogbench report ID -o FILE.pdf  PDF report of a stored case
 package main
 
@@ -26,6 +27,7 @@ import (
 	"os"
 	"os/signal"
 	"strconv"
+	"strings"
 	"syscall"
 	"time"
 
@@ -52,6 +54,8 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		return evalCmd(args, stdin, stdout, stderr)
 	case "backup":
 		return backupCmd(args, stderr)
+	case "restore":
+		return restoreCmd(args, stdout, stderr)
 	case "report":
 		return reportCmd(args, stderr)
 	case "help", "-h", "--help":
@@ -66,6 +70,7 @@ const usage = `usage:
   fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert CERT.pem -tls-key KEY.pem]
   fogbench eval [FILE|-]            evaluate a case file (one case or an array) and print the results as JSON
   fogbench backup [-db fogbench.db] FILE   write a consistent copy of the library (safe while serving)
+  fogbench restore FILE [-db fogbench.db]  replace the library with a checked backup (stop the server first)
   fogbench report CASE-ID -o FILE.pdf [-db fogbench.db] [-paper a4|letter]   PDF report of a stored case
 `
 
@@ -75,6 +80,7 @@ func serve(args []string, stderr io.Writer) int {
 	addr := fs.String("addr", "127.0.0.1:8080", "address to listen on")
 	dbPath := fs.String("db", "fogbench.db", "SQLite case library (created with demo cases if missing)")
 	verbose := fs.Bool("v", false, "log every request")
+	tokenFile := fs.String("token-file", "", "file holding the access token (or set FOGBENCH_TOKEN); required for a non-loopback -addr")
 	tlsCert := fs.String("tls-cert", "", "serve HTTPS with this PEM certificate (with -tls-key)")
 	tlsKey := fs.String("tls-key", "", "PEM private key of -tls-cert")
 	if err := fs.Parse(args); err != nil {
@@ -90,9 +96,18 @@ func serve(args []string, stderr io.Writer) int {
 		level = slog.LevelDebug
 	}
 	logger := slog.New(slog.NewTextHandler(stderr, &slog.HandlerOptions{Level: level}))
-	if err := checkLoopback(*addr); err != nil {
+	token, err := loadToken(*tokenFile, os.Getenv("FOGBENCH_TOKEN"))
+	if err != nil {
 		fmt.Fprintf(stderr, "fogbench: %v\n", err)
 		return 2
+	}
+	if token == "" { // without a token, serve this machine only
+		if err := checkLoopback(*addr); err != nil {
+			fmt.Fprintf(stderr, "fogbench: %v\n", err)
+			return 2
+		}
+	} else {
+		logger.Info("access token required: people sign in at /login, API clients send Authorization: Bearer")
 	}
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
 	defer stop()
@@ -116,6 +131,7 @@ func serve(args []string, stderr io.Writer) int {
 	}
 	app := server.New(st, logger)
 	app.SecureCookies = tlsConfig != nil
+	app.Token = token
 	srv := newHTTPServer(*addr, app.Handler())
 	srv.TLSConfig = tlsConfig
 	ln, err := net.Listen("tcp", *addr)
@@ -195,7 +211,7 @@ func checkLoopback(addr string) error {
 	}
 	ip := net.ParseIP(host)
 	if ip == nil || !ip.IsLoopback() {
-		return fmt.Errorf("-addr %q is not a loopback address; fogbench serves only this machine until access control is configured", addr)
+		return fmt.Errorf("-addr %q is not a loopback address: to serve other machines, give an access token with -token-file or FOGBENCH_TOKEN (see docs/access.md)", addr)
 	}
 	return nil
 }
@@ -355,5 +371,64 @@ func reportCmd(args []string, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "fogbench report: %v\n", err)
 		return 1
 	}
+	return 0
+}
+
+// loadToken reads the access token from -token-file, else from
+// FOGBENCH_TOKEN. Surrounding white space (a trailing newline) is dropped.
+// The token is never printed.
+func loadToken(file, env string) (string, error) {
+	tok := env
+	if file != "" {
+		data, err := os.ReadFile(file)
+		if err != nil {
+			return "", fmt.Errorf("-token-file: %v", err)
+		}
+		if fi, err := os.Stat(file); err == nil && fi.Mode().Perm()&0o077 != 0 {
+			fmt.Fprintf(os.Stderr, "fogbench: warning: %s can be read by other users; chmod 600 it\n", file)
+		}
+		tok = string(data)
+	}
+	tok = strings.TrimSpace(tok)
+	if tok != "" && len(tok) < server.MinTokenLen {
+		return "", fmt.Errorf("the access token is too short: use at least %d characters (for example: head -c 24 /dev/urandom | base64)", server.MinTokenLen)
+	}
+	return tok, nil
+}
+
+// restoreCmd replaces a library with a backup after checking it. The file
+// may come before or after the flags.
+func restoreCmd(args []string, stdout, stderr io.Writer) int {
+	fs := flag.NewFlagSet("restore", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	dbPath := fs.String("db", "fogbench.db", "SQLite case library to replace")
+	var pos []string
+	for {
+		if err := fs.Parse(args); err != nil {
+			return 2
+		}
+		if fs.NArg() == 0 {
+			break
+		}
+		pos = append(pos, fs.Arg(0))
+		args = fs.Args()[1:]
+	}
+	if len(pos) != 1 {
+		fmt.Fprintln(stderr, "fogbench restore: give the backup file")
+		return 2
+	}
+	rep, err := store.RestoreFile(context.Background(), pos[0], *dbPath)
+	if err != nil {
+		fmt.Fprintf(stderr, "fogbench restore: %v\n", err)
+		if calc.ErrorCode(err) == calc.Internal {
+			return 1
+		}
+		return 2
+	}
+	fmt.Fprintf(stdout, "restored %s from %s: %d cases, schema %d; integrity check ok\n", *dbPath, pos[0], rep.Cases, rep.SchemaVersion)
+	if rep.KeptAside != "" {
+		fmt.Fprintf(stdout, "the previous library is kept as %s\n", rep.KeptAside)
+	}
+	fmt.Fprintln(stdout, "The new file was put in place by an atomic rename; fogbench cannot tell whether another program still had the old file open, so restart any server using it.")
 	return 0
 }

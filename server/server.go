@@ -34,6 +34,9 @@ type Server struct {
 	// SecureCookies marks every cookie Secure (newCookie): set it when
 	// serving over TLS.
 	SecureCookies bool
+	// Token, when set, is the access token every request must present
+	// (auth.go); empty leaves a loopback-only fogbench open.
+	Token string
 
 	// results caches evaluated stored cases and their plots per revision
 	// and unit system (plotcache.go); nil draws every time.
@@ -60,6 +63,7 @@ func (s *Server) Handler() http.Handler {
 	r.Use(securityHeaders)
 	r.Use(s.crossOrigin) // CSRF: cross-site POSTs get 403 (csrf.go)
 	r.Use(s.limitBody(MaxBodyBytes))
+	r.Use(s.requireToken)
 
 	sub, _ := fs.Sub(static.FS, ".")
 	r.Handle("/static/*", http.StripPrefix("/static/", cacheStatic(http.FileServerFS(sub))))
@@ -76,6 +80,15 @@ func (s *Server) Handler() http.Handler {
 			r.Post("/", s.handleCaseUpdate)
 			r.Get("/edit", s.handleCaseEdit)
 			r.Post("/duplicate", s.handleCaseDuplicate)
+			r.Post("/rename", s.handleCaseRename)
+			r.Post("/tags", s.handleCaseTags)
+			r.Post("/trash", s.handleCaseTrash)
+			r.Post("/restore", s.handleCaseRestore)
+			r.Post("/merge", s.handleCaseMerge)
+			r.Get("/revisions", s.handleRevisions)
+			r.Get("/revisions/{rev}", s.handleRevisionShow)
+			r.Post("/revisions/{rev}/restore", s.handleRevisionRestore)
+			r.Get("/diff", s.handleRevisionDiff)
 			r.Get("/report", s.handleCaseReport)
 			r.Get("/report.pdf", s.handleCaseReportPDF)
 			r.Get("/bins.csv", s.handleCaseBinsCSV)
@@ -97,6 +110,14 @@ func (s *Server) Handler() http.Handler {
 		r.Get("/{family}", s.handleAtomizerBench)
 		r.Get("/{family}/case", s.handleAtomizerCase)
 	})
+	r.Get("/compare", s.handleCompare)
+	r.Get("/bundle/export", s.handleExportPage)
+	r.Get("/bundle/import", s.handleImportPage)
+	r.Post("/bundle/import", s.handleImportPreview)
+	r.Post("/bundle/import/apply", s.handleImportApply)
+	r.Get("/login", s.handleLogin)
+	r.Post("/login", s.handleLoginPost)
+	r.Post("/logout", s.handleLogout)
 	r.Route("/api", func(r chi.Router) {
 		r.Get("/fluids", s.handleAPIFluids)
 		r.Get("/fluids/{id}", s.handleAPIFluid)
@@ -109,6 +130,8 @@ func (s *Server) Handler() http.Handler {
 		r.Put("/cases/{id}", s.handleAPICaseUpdate)
 		r.Get("/cases/{id}/file", s.handleAPICaseFile)
 		r.Get("/cases/{id}/revisions", s.handleAPIRevisions)
+		r.Get("/export", s.handleAPIExport)
+		r.Post("/import", s.handleAPIImport)
 	})
 	r.NotFound(func(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, calc.Errorf(calc.NotFound, "There is no page at %s.", r.URL.Path))

@@ -170,7 +170,7 @@ func TestCreateViewEditCase(t *testing.T) {
 	resp = postForm(t, c, ts.URL+"/cases/"+id, form)
 	body, _ := io.ReadAll(resp.Body)
 	resp.Body.Close()
-	if resp.StatusCode != http.StatusConflict || !strings.Contains(string(body), "save-as-copy") {
+	if resp.StatusCode != http.StatusConflict || !strings.Contains(string(body), `data-testid="merge-copy"`) {
 		t.Fatalf("stale save: status %d", resp.StatusCode)
 	}
 	if rec, _ = st.GetCase(context.Background(), mustInt(t, id)); rec.Case.Distribution.Q != 3.2 {

@@ -1,0 +1,139 @@
+package server
+
+import (
+	"context"
+	"fmt"
+	"net/http"
+	"strings"
+	"testing"
+
+	"github.com/PuerkitoBio/goquery"
+
+	"fogbench/calc"
+	"fogbench/store"
+	"fogbench/views"
+)
+
+// fourCases adds a fourth case (the first demo case at a higher gas
+// temperature) to the three demo cases and returns their ids.
+func fourCases(t *testing.T, st *store.Store) []int64 {
+	t.Helper()
+	ctx := context.Background()
+	rows, _, err := st.ListCases(ctx, store.ListOptions{Sort: "id"})
+	if err != nil || len(rows) != 3 {
+		t.Fatalf("demo rows %d %v", len(rows), err)
+	}
+	first, _ := st.GetCase(ctx, rows[0].ID)
+	c := first.Case
+	c.Name = "Hot-air variant"
+	c.Gas.TemperatureK += 40
+	rec, err := st.CreateCase(ctx, c, "t")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return []int64{rows[0].ID, rows[1].ID, rows[2].ID, rec.ID}
+}
+
+func TestCompareFourCases(t *testing.T) {
+	ts, st := newTestServer(t)
+	ids := fourCases(t, st)
+	c := client(t)
+	u := views.CompareURL(ids, ids[0])
+	doc, code := getDoc(t, c, ts.URL+u)
+	if code != http.StatusOK {
+		t.Fatalf("compare: status %d", code)
+	}
+	// The page links to its own URL, so it can be reopened.
+	if href, _ := doc.Find(`[data-testid=compare-link]`).Attr("href"); href != u {
+		t.Fatalf("self link %q, want %q", href, u)
+	}
+	if got := doc.Find(`[data-testid=compare-results] thead th`).Length(); got != 5 {
+		t.Fatalf("result table has %d header cells, want 1 + 4 cases", got)
+	}
+	// Every overlay plot is drawn, each with one line per computed case.
+	for _, id := range []string{"volume", "cumulative", "history", "curvature"} {
+		svg := doc.Find(`[data-testid=plot-` + id + `] svg`)
+		if svg.Length() != 1 {
+			t.Fatalf("plot %s missing", id)
+		}
+	}
+	// D32 differences against the baseline are computed from the results.
+	ctx := context.Background()
+	var d32 []float64
+	for _, id := range ids {
+		rec, _ := st.GetCase(ctx, id)
+		res, err := calc.Evaluate(rec.Case)
+		if err != nil {
+			t.Fatal(err)
+		}
+		d32 = append(d32, res.Summary.D32M*1e6)
+	}
+	row := doc.Find(`[data-testid=compare-row]`).First()
+	if !strings.Contains(row.Text(), "D32") {
+		t.Fatalf("first result row is %q", row.Text())
+	}
+	deltas := row.Find(`[data-testid=delta]`)
+	if deltas.Length() != 3 {
+		t.Fatalf("%d deltas in the D32 row, want 3", deltas.Length())
+	}
+	want := views.CompareRow{Numeric: true, Values: d32, Has: []bool{true, true, true, true}}
+	for i := 1; i < 4; i++ {
+		if got := deltas.Eq(i - 1).Text(); got != want.DeltaText(i, 0) {
+			t.Errorf("delta %d: %q, want %q", i, got, want.DeltaText(i, 0))
+		}
+	}
+	// The hot-air variant differs from the baseline in the gas temperature
+	// only; that input row is marked.
+	marked := 0
+	doc.Find(`[data-testid=compare-inputs] tr.differs`).Each(func(_ int, s *goquery.Selection) {
+		if strings.Contains(s.Find("th").Text(), "gas.temperature_k") {
+			marked++
+		}
+	})
+	if marked != 1 {
+		t.Fatal("gas temperature row not marked as differing")
+	}
+
+	// Choosing another baseline is another URL.
+	doc, _ = getDoc(t, c, ts.URL+views.CompareURL(ids, ids[2]))
+	rec, _ := st.GetCase(ctx, ids[2])
+	if got := doc.Find(`[data-testid=baseline]`).Text(); got != rec.Case.Name {
+		t.Fatalf("baseline %q", got)
+	}
+}
+
+func TestCompareURLNormalised(t *testing.T) {
+	ts, st := newTestServer(t)
+	ids := fourCases(t, st)
+	c := client(t)
+	// The library's checkboxes send ids repeatedly and no base: redirect
+	// to the one canonical address, baseline first.
+	resp, err := c.Get(fmt.Sprintf("%s/compare?ids=%d&ids=%d&ids=%d", ts.URL, ids[1], ids[0], ids[1]))
+	if err != nil {
+		t.Fatal(err)
+	}
+	resp.Body.Close()
+	if resp.StatusCode != http.StatusFound || resp.Header.Get("Location") != views.CompareURL([]int64{ids[1], ids[0]}, ids[1]) {
+		t.Fatalf("status %d to %q", resp.StatusCode, resp.Header.Get("Location"))
+	}
+	// A base outside the set falls back to the first case.
+	resp, _ = c.Get(fmt.Sprintf("%s/compare?ids=%d,%d&base=999", ts.URL, ids[0], ids[1]))
+	resp.Body.Close()
+	if resp.Header.Get("Location") != views.CompareURL(ids[:2], ids[0]) {
+		t.Fatalf("bad base redirected to %q", resp.Header.Get("Location"))
+	}
+	for _, q := range []string{
+		fmt.Sprintf("ids=%d", ids[0]),     // one case
+		"ids=1,2,3,4,5,6,7",               // seven
+		fmt.Sprintf("ids=%d,abc", ids[0]), // not a number
+	} {
+		_, code := getDoc(t, c, ts.URL+"/compare?"+q)
+		if code != http.StatusBadRequest {
+			t.Errorf("%s: status %d, want 400", q, code)
+		}
+	}
+	_, code := getDoc(t, c, fmt.Sprintf("%s/compare?ids=%d,424242&base=%d", ts.URL, ids[0], ids[0]))
+	if code != http.StatusNotFound {
+		t.Errorf("unknown case: status %d", code)
+	}
+}
