@@ -240,6 +240,39 @@ func (d *Distribution) prune() {
 	*d = keep
 }
 
+// MaxClassesPerRequest bounds the size classes one server request may ask
+// to evaluate, summed over its cases: evaluation time grows with the
+// classes (a transient 2000-class case takes seconds), and evaluation is
+// not interrupted when a client gives up.
+const MaxClassesPerRequest = 4000
+
+// Classes is the number of size classes the case will be evaluated in:
+// its measured classes, or its bins (DefaultBins when not given).
+func (c Case) Classes() int {
+	d := c.Distribution
+	if d.Model == "bins" {
+		return max(len(d.EdgesM)-1, 0)
+	}
+	if d.Bins <= 0 {
+		return DefaultBins
+	}
+	return d.Bins
+}
+
+// CheckWork refuses a set of cases whose classes together exceed
+// MaxClassesPerRequest, naming the file.
+func CheckWork(cases []Case) error {
+	total := 0
+	for _, c := range cases {
+		total += min(c.Classes(), MaxBins+1) // an absurd count is the validator's to report
+	}
+	if total > MaxClassesPerRequest {
+		return &valid.FieldError{Field: "file", Value: fmt.Sprint(total),
+			Message: fmt.Sprintf("asks for too many size classes in one request: at most %d in all; send fewer cases or fewer bins", MaxClassesPerRequest)}
+	}
+	return nil
+}
+
 // IsArray reports whether a case file holds a JSON array of cases.
 func IsArray(data []byte) bool {
 	t := bytes.TrimSpace(bytes.TrimPrefix(data, []byte("\xef\xbb\xbf")))

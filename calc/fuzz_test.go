@@ -367,3 +367,28 @@ func TestNonFiniteFindsThePath(t *testing.T) {
 		t.Fatalf("got %q, want history.t_s[1]", p)
 	}
 }
+
+// The work one request may ask for is bounded by the classes summed over
+// its cases, measured bins and model bins alike.
+func TestCheckWork(t *testing.T) {
+	model := Case{Distribution: Distribution{Model: "rosin-rammler", Bins: 2000}}
+	dflt := Case{Distribution: Distribution{Model: "log-normal"}}
+	measured := Case{Distribution: Distribution{Model: "bins", EdgesM: make([]float64, 1001)}}
+	if got := []int{model.Classes(), dflt.Classes(), measured.Classes()}; got[0] != 2000 || got[1] != DefaultBins || got[2] != 1000 {
+		t.Fatalf("classes %v", got)
+	}
+	if err := CheckWork([]Case{model, model}); err != nil {
+		t.Errorf("two cases of 2000 classes: %v", err)
+	}
+	err := CheckWork([]Case{model, model, measured})
+	if fes := FieldErrors(err); len(fes) != 1 || fes[0].Field != "file" || fes[0].Value != "5000" {
+		t.Errorf("5000 classes: %v", err)
+	}
+	many := make([]Case, MaxCasesPerFile)
+	for i := range many {
+		many[i] = dflt
+	}
+	if err := CheckWork(many); err != nil {
+		t.Errorf("%d cases of the default %d classes: %v", MaxCasesPerFile, DefaultBins, err)
+	}
+}

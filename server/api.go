@@ -22,6 +22,10 @@ func (s *Server) handleAPIEvaluate(w http.ResponseWriter, r *http.Request) {
 		s.apiError(w, r, err)
 		return
 	}
+	if err := calc.CheckWork(cases); err != nil {
+		s.apiError(w, r, err)
+		return
+	}
 	results := make([]*calc.Result, len(cases))
 	for i, c := range cases {
 		res, err := calc.Evaluate(c)

@@ -442,12 +442,15 @@ func TestBadInputIsNamedAtEveryServerEntry(t *testing.T) {
 	}
 	// JSON: 400 with the field named in "fields".
 	many := "[" + strings.Repeat(apiCase+",", 100) + apiCase + "]"
+	big := strings.Replace(apiCase, `"bins":6`, `"bins":2000`, 1)
+	heavy := "[" + big + "," + big + "," + big + "]" // 6000 classes: refused before any work
 	for _, c := range []struct{ path, body, field string }{
 		{"/api/evaluate", strings.Replace(apiCase, `"x_m":5e-5`, `"x_m":1e999`, 1), "distribution.x_m"},
 		{"/api/evaluate", strings.Replace(apiCase, `"bins":6`, `"bins":1000000000`, 1), "distribution.bins"},
 		{"/api/evaluate", strings.Replace(apiCase, `"pressure_pa":101325`, `"pressure_pa":0`, 1), "gas.pressure_pa"},
 		{"/api/evaluate", strings.Replace(apiCase, `"liquid_temperature_k":298.15`, `"liquid_temperature_k":-3`, 1), "liquid_temperature_k"},
 		{"/api/evaluate", many, "file"},
+		{"/api/evaluate", heavy, "file"},
 		{"/api/cases", strings.Replace(apiCase, `"temperature_k":298.15}`, `"temperature_k":1e6}`, 1), "gas.temperature_k"},
 		{"/api/cases", strings.Replace(apiCase, `"d_max_m":3e-4`, `"d_max_m":-3e-4`, 1), "distribution.d_max_m"},
 	} {
