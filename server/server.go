@@ -111,6 +111,8 @@ func (s *Server) Handler() http.Handler {
 		r.Get("/{family}/case", s.handleAtomizerCase)
 	})
 	r.Get("/compare", s.handleCompare)
+	r.Get("/compare/report", s.handleCompareReport)
+	r.Get("/compare/report.pdf", s.handleCompareReportPDF)
 	r.Get("/bundle/export", s.handleExportPage)
 	r.Get("/bundle/import", s.handleImportPage)
 	r.Post("/bundle/import", s.handleImportPreview)
