@@ -96,6 +96,16 @@ func (s *Server) Handler() http.Handler {
 		})
 	})
 	r.Post("/settings/units", s.handleUnitsSet)
+	r.Get("/compare", s.handleCompare)
+	r.Get("/compare/report", s.handleCompareReport)
+	r.Get("/compare/report.pdf", s.handleCompareReportPDF)
+	r.Get("/bundle/export", s.handleExportPage)
+	r.Get("/bundle/import", s.handleImportPage)
+	r.Post("/bundle/import", s.handleImportPreview)
+	r.Post("/bundle/import/apply", s.handleImportApply)
+	r.Get("/login", s.handleLogin)
+	r.Post("/login", s.handleLoginPost)
+	r.Post("/logout", s.handleLogout)
 	r.Route("/fluids", func(r chi.Router) {
 		r.Get("/", s.handleFluids)
 		r.Get("/custom/new", s.handleLiquidNew)
@@ -110,16 +120,6 @@ func (s *Server) Handler() http.Handler {
 		r.Get("/{family}", s.handleAtomizerBench)
 		r.Get("/{family}/case", s.handleAtomizerCase)
 	})
-	r.Get("/compare", s.handleCompare)
-	r.Get("/compare/report", s.handleCompareReport)
-	r.Get("/compare/report.pdf", s.handleCompareReportPDF)
-	r.Get("/bundle/export", s.handleExportPage)
-	r.Get("/bundle/import", s.handleImportPage)
-	r.Post("/bundle/import", s.handleImportPreview)
-	r.Post("/bundle/import/apply", s.handleImportApply)
-	r.Get("/login", s.handleLogin)
-	r.Post("/login", s.handleLoginPost)
-	r.Post("/logout", s.handleLogout)
 	r.Route("/api", func(r chi.Router) {
 		r.Get("/fluids", s.handleAPIFluids)
 		r.Get("/fluids/{id}", s.handleAPIFluid)
@@ -155,6 +155,9 @@ func (s *Server) render(w http.ResponseWriter, r *http.Request, status int, chro
 	if chrome.Back == "" && r.Method == http.MethodGet {
 		chrome.Back = r.URL.RequestURI() // the units switch comes back here
 	}
+	chrome.Author = s.author(r)
+	chrome.SignedIn = authorFromCookie(r) != ""
+	chrome.TokenMode = s.Token != ""
 	var buf bytes.Buffer
 	if err := views.Layout(chrome, content).Render(r.Context(), &buf); err != nil {
 		s.Logger.Error("render", "path", r.URL.Path, "err", err)

@@ -24,6 +24,12 @@ type Chrome struct {
 	// Back is where the units switch returns to (the page's own path and
 	// query); empty sends the browser back by its Referer.
 	Back string
+	// Author is the name revisions are saved under; SignedIn says it came
+	// from /login rather than the server's default; TokenMode says the
+	// server asks for an access token (a shared host).
+	Author    string
+	SignedIn  bool
+	TokenMode bool
 }
 
 // LibraryView is the case list.
