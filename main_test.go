@@ -55,6 +55,34 @@ func TestEvalArrayFromStdin(t *testing.T) {
 	}
 }
 
+// eval writes compact JSON, one line, unless a single case goes to a
+// terminal; the field names are those of the indented form.
+func TestEvalWritesCompactJSON(t *testing.T) {
+	var out, errb bytes.Buffer
+	if code := run([]string{"eval", "testdata/cases/water-rosin-rammler.json"}, nil, &out, &errb); code != 0 {
+		t.Fatalf("exit %d: %s", code, errb.String())
+	}
+	b := out.Bytes()
+	if n := bytes.Count(b, []byte("\n")); n != 1 || b[len(b)-1] != '\n' {
+		t.Fatalf("want one line ending in a newline, got %d newlines", n)
+	}
+	var indented bytes.Buffer
+	if err := json.Indent(&indented, b, "", "  "); err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Contains(indented.Bytes(), []byte(`"evaporation_rate_kg_s": `)) {
+		t.Fatal("indented form lost a field name")
+	}
+	f, err := os.Create(t.TempDir() + "/out.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	if isTerminal(&out) || isTerminal(f) {
+		t.Fatal("a buffer or a regular file taken for a terminal")
+	}
+}
+
 // Bad input exits 2 with one line that names the field.
 func TestEvalBadInput(t *testing.T) {
 	cases := []struct {
