@@ -414,17 +414,20 @@ func atomizerSMD(c Case, l *fluid.Liquid, g *fluid.Gas) (*atomize.Result, float6
 	return &res, chosen.SMD, q, warnings, nil
 }
 
-// filmAdapter gives evap the 1/3-rule film of calc/fluid.
+// filmAdapter gives evap the 1/3-rule film of calc/fluid. Its cache keeps
+// the pure-component properties of the last surface temperature (the same
+// numbers as fluid.FilmProperties, which the range warnings aside this
+// adapter would otherwise call): one adapter per evaluation, never shared
+// between goroutines.
 type filmAdapter struct {
-	l *fluid.Liquid
-	g *fluid.Gas
+	cache *fluid.FilmCache
 }
 
 // Film implements evap.FilmModel. The mean free path is left at zero so that
 // evap uses the vapor mean free path 3D/c̄ that the Fuchs–Sutugin form is
 // written with (Seinfeld & Pandis eq. 12.43 convention).
 func (a filmAdapter) Film(p, ts, tinf, ys, yinf float64) evap.Film {
-	f := fluid.FilmProperties(a.l, a.g, p, ts, tinf, ys, yinf)
+	f := a.cache.Properties(p, ts, tinf, ys, yinf)
 	return evap.Film{T: f.T, VaporMassFraction: f.VaporMassFraction, Density: f.Density, Viscosity: f.Viscosity,
 		Conductivity: f.Conductivity, HeatCapacity: f.HeatCapacity, VaporHeatCapacity: f.VaporHeatCapacity,
 		Diffusivity: f.Diffusivity}
@@ -437,7 +440,7 @@ func (s *setup) conditions(curvature bool) *evap.Conditions {
 		conv = evap.ConvectionRanzMarshall
 	}
 	return &evap.Conditions{
-		Liquid: s.liquid, Gas: filmAdapter{s.liquid, s.gas}, GasMolarMass: s.gas.MolarMass(),
+		Liquid: s.liquid, Gas: filmAdapter{fluid.NewFilmCache(s.liquid, s.gas)}, GasMolarMass: s.gas.MolarMass(),
 		Pressure: s.c.Gas.PressurePa, GasTemperature: s.c.Gas.TemperatureK, VaporMoleFraction: s.xInf,
 		RelativeVelocity: s.c.Gas.RelativeVelocityMS, Curvature: curvature, Transition: !e.NoTransition,
 		Convection: conv, AccommodationCoefficient: e.AccommodationCoef,

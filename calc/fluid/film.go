@@ -78,23 +78,53 @@ func FilmProperties(l *Liquid, g *Gas, p, Ts, Tinf, Ys, Yinf float64) Film {
 	if err != nil {
 		w = []string{"invalid film inputs, values held to the nearest valid ones: " + err.Error()}
 	}
+	var pc filmPure
+	pc.at(l, g, p, Ts, Tinf)
+	f := pc.mix(Ys, Yinf)
+	f.Warnings = w
+	return f
+}
+
+// filmPure holds what FilmProperties computes from the pure components
+// alone: everything at the reference temperature, which depends on Ts and
+// Tinf but not on the vapor fractions.
+type filmPure struct {
+	p, tr, mv, mg              float64
+	cpv, cpg, muv, mug, kv, kg float64
+	phiVG, phiGV, diff         float64
+	inP, inTs, inTinf          float64 // the arguments it was made for
+	set                        bool
+}
+
+// at fills pc for p, Ts, Tinf as FilmProperties takes them (held to the
+// nearest valid values).
+func (pc *filmPure) at(l *Liquid, g *Gas, p, Ts, Tinf float64) {
+	pc.inP, pc.inTs, pc.inTinf, pc.set = p, Ts, Tinf, true
 	p = positiveOr(p, 1e-3)
 	Ts = l.clampLiquid(Ts)
 	Tinf = positiveOr(Tinf, 1e-3)
-	Ys, Yinf = clampFraction(Ys), clampFraction(Yinf)
-
 	tr := Ts + (Tinf-Ts)/3
+	pc.p, pc.tr, pc.mv, pc.mg = p, tr, l.molarMass, g.molarMass
+	pc.cpv, pc.cpg = l.VaporHeatCapacity(tr), g.HeatCapacity(tr)
+	pc.muv, pc.mug = l.VaporViscosity(tr), g.Viscosity(tr)
+	pc.kv, pc.kg = l.VaporConductivity(tr), g.Conductivity(tr)
+	pc.phiVG = wilkePhi(pc.muv, pc.mug, pc.mv, pc.mg)
+	pc.phiGV = wilkePhi(pc.mug, pc.muv, pc.mg, pc.mv)
+	pc.diff = Diffusivity(l, g, tr, p)
+}
+
+// mix is the mixing step of FilmProperties at the vapor mass fractions Ys
+// and Yinf (held to [0, 0.999999]).
+func (pc *filmPure) mix(Ys, Yinf float64) Film {
+	Ys, Yinf = clampFraction(Ys), clampFraction(Yinf)
+	tr, p := pc.tr, pc.p
 	yr := Ys + (Yinf-Ys)/3
-	mv, mg := l.molarMass, g.molarMass
+	mv, mg := pc.mv, pc.mg
 	nv, ng := yr/mv, (1-yr)/mg
 	xv := nv / (nv + ng)
 	m := 1 / (nv + ng)
-
-	cpv, cpg := l.VaporHeatCapacity(tr), g.HeatCapacity(tr)
-	muv, mug := l.VaporViscosity(tr), g.Viscosity(tr)
-	kv, kg := l.VaporConductivity(tr), g.Conductivity(tr)
-	phiVG := wilkePhi(muv, mug, mv, mg)
-	phiGV := wilkePhi(mug, muv, mg, mv)
+	cpv, cpg, muv, mug, kv, kg := pc.cpv, pc.cpg, pc.muv, pc.mug, pc.kv, pc.kg
+	phiVG, phiGV := pc.phiVG, pc.phiGV
 	xg := 1 - xv
 	mu := xv*muv/(xv+xg*phiVG) + xg*mug/(xg+xv*phiGV)
 	k := xv*kv/(xv+xg*phiVG) + xg*kg/(xg+xv*phiGV)
@@ -109,10 +139,34 @@ func FilmProperties(l *Liquid, g *Gas, p, Ts, Tinf, Ys, Yinf float64) Film {
 		Conductivity:      k,
 		HeatCapacity:      yr*cpv + (1-yr)*cpg,
 		VaporHeatCapacity: cpv,
-		Diffusivity:       Diffusivity(l, g, tr, p),
+		Diffusivity:       pc.diff,
 		MeanFreePath:      MeanFreePath(mu, tr, p, m),
-		Warnings:          w,
 	}
+}
+
+// FilmCache evaluates the film of one liquid in one gas for a solver that
+// asks many times: it keeps the pure-component properties of the last
+// (p, Ts, Tinf), so that at a fixed surface temperature every drop size
+// pays only for the mixing step (the vapor fraction at the surface changes
+// with the Kelvin raise, the reference temperature does not). It is not
+// safe for concurrent use; make one per evaluation.
+type FilmCache struct {
+	l  *Liquid
+	g  *Gas
+	pc filmPure
+}
+
+// NewFilmCache returns an empty cache for liquid l in gas g.
+func NewFilmCache(l *Liquid, g *Gas) *FilmCache { return &FilmCache{l: l, g: g} }
+
+// Properties returns FilmProperties(l, g, p, Ts, Tinf, Ys, Yinf) bit for
+// bit, without its Warnings (call CheckFilm for those); see FilmProperties
+// for the formulas, units and sources.
+func (c *FilmCache) Properties(p, Ts, Tinf, Ys, Yinf float64) Film {
+	if !c.pc.set || c.pc.inP != p || c.pc.inTs != Ts || c.pc.inTinf != Tinf {
+		c.pc.at(c.l, c.g, p, Ts, Tinf)
+	}
+	return c.pc.mix(Ys, Yinf)
 }
 
 // wilkePhi is Wilke's interaction parameter phi_ij (Poling et al. 5th ed.
