@@ -55,7 +55,7 @@ func superheatChart(c calc.Case, res *calc.Result) (chart, bool) {
 		Series: []series{
 			line("p_sat(T)", d.Saturation, false),
 			line("spinodal (PR)", d.Spinodal, true),
-			line("kinetic limit, J = "+strings.Replace(fmt.Sprintf("%.0e", d.Threshold), "e+", "e", 1)+" m⁻³ s⁻¹", d.KineticLimit, true),
+			line("kinetic limit, J = "+strings.Replace(fmt.Sprintf("%.0e", d.Threshold), "e+", "e", 1)+" 1/(m³ s)", d.KineticLimit, true),
 			{Name: "this case: ΔT at p_amb", X: []float64{sh.SaturationTemperatureK, sh.TemperatureK}, Y: []float64{p, p}},
 		},
 		Marks:     []float64{sh.TemperatureK},

@@ -490,6 +490,13 @@ func (p *pdfReport) body() {
 		p.figureTable(v.SummaryFigures(), true)
 		p.subheading("Curvature", v.MethodRefs("laplace", "kelvin", "evaporation"))
 		p.figureTable(v.CurvatureFigures(), true)
+		if sh := v.SuperheatView(); sh.S != nil {
+			p.subheading("Superheat and flashing: "+sh.S.Regime, "")
+			p.figureTable(sh.Figures(), true)
+			if sh.S.Note != "" {
+				p.paragraph(sh.S.Note, "", 8.5, colMuted)
+			}
+		}
 		warnings := v.Result.Warnings
 		if len(warnings) == 0 {
 			warnings = []string{"None: every correlation and property was used inside its stated range."}
@@ -515,6 +522,11 @@ func (p *pdfReport) plots() {
 	for _, pl := range p.v.Plots {
 		if c, ok := chartByID(pl.ID, p.v.Result, fit); ok {
 			p.plot(pl, c, &first)
+		}
+	}
+	if pl := p.v.SuperheatPlot; pl != nil {
+		if c, ok := superheatChart(p.v.Case, p.v.Result); ok {
+			p.plot(*pl, c, &first)
 		}
 	}
 }

@@ -68,10 +68,10 @@ func (v SuperheatView) Figures() []Figure {
 		w.Value = Num(*s.NucleationBarrierKT, 4)
 	}
 	figs = append(figs, w,
-		Figure{Label: "Homogeneous nucleation rate", Symbol: "J", Value: Num(s.NucleationRateM3S, 3), Unit: "m⁻³ s⁻¹",
+		Figure{Label: "Homogeneous nucleation rate", Symbol: "J", Value: Num(s.NucleationRateM3S, 3), Unit: "1/(m³ s)",
 			Hint: "classical nucleation theory (Blander & Katz 1975 form)"},
 		opt("Kinetic limit of superheat", "T_kl", s.KineticLimitK, "not reached below Tc",
-			fmt.Sprintf("temperature at which J reaches %s m⁻³ s⁻¹ at this pressure", Num(s.NucleationThresholdM3S, 2))),
+			fmt.Sprintf("temperature at which J reaches %s per m³ and second at this pressure", Num(s.NucleationThresholdM3S, 2))),
 		opt("Liquid spinodal (Peng–Robinson)", "T_sp", s.SpinodalK, "none at this pressure",
 			"thermodynamic end of the metastable liquid at this pressure"),
 	)
