@@ -160,6 +160,9 @@ func (v CaseView) SummaryFigures() []Figure {
 		v          *float64
 	}{{"50 % of mass evaporated", "t50", s.T50S}, {"90 % evaporated", "t90", s.T90S}, {"99 % evaporated", "t99", s.T99S}} {
 		f := Figure{Label: t.label, Symbol: t.sym, Value: "not reached", Hint: "the surroundings hold the vapor back"}
+		if v.Result.Superheat != nil {
+			f.Value, f.Hint = "not computed", "a superheated liquid flashes; the evaporation model does not apply"
+		}
 		if t.v != nil {
 			f.Value = v.Display.Value(units.Time, *t.v, 3)
 			f.Unit = v.Display.Unit(units.Time)
