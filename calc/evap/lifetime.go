@@ -186,6 +186,10 @@ type rateFunc struct {
 	flags     uint
 	err       error
 	liq       liquidAt // liquid properties at the last surface temperature
+	lastT     float64  // surface temperature of the last call
+	// exact makes atNear solve every steady temperature by bracketing and
+	// Brent's method, as at does (for tests of the secant path).
+	exact bool
 }
 
 func newRateFunc(c *Conditions, fixedTs, tb float64) *rateFunc {
@@ -225,11 +229,31 @@ func (r *rateFunc) at(d float64) (mdot, rhoL float64, err error) {
 		r.err = err
 		return 0, 0, err
 	}
+	r.lastT = t
 	e, err := r.c.evaluateAt(d, t, r.c.Curvature, &r.liq)
 	if err != nil {
 		r.err = err
 		return 0, 0, err
 	}
+	r.flags |= e.flags &^ warnKelvinSmall
+	return e.mdot, e.rhoL, nil
+}
+
+// atNear is at with a guess of the steady temperature (K; ignored with a
+// fixed surface temperature, and zero for none): from a close guess the
+// secant steps of steadyNear need about three heat-balance evaluations
+// where bracketing and Brent's method need about ten. Where they do not
+// converge, or below minSteadyDiameter, it is at.
+func (r *rateFunc) atNear(d, guess float64) (mdot, rhoL float64, err error) {
+	if r.fixedTs > 0 || r.exact || !(guess > 0) || d < minSteadyDiameter {
+		return r.at(d)
+	}
+	t, e, ok := r.c.steadyNear(d, r.tb, guess, &r.liq)
+	if !ok {
+		r.guess = guess
+		return r.at(d)
+	}
+	r.guess, r.lastT = t, t
 	r.flags |= e.flags &^ warnKelvinSmall
 	return e.mdot, e.rhoL, nil
 }
