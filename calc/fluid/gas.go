@@ -135,9 +135,15 @@ func airIdealCp(T float64) float64 {
 	tau := 132.6312 / T
 	pows := [6]float64{-3, -2, -1, 0, 1, 1.5}
 	ns := [6]float64{0.6057194e-7, -0.210274769e-4, -0.158860716e-3, 9.7450251743948, 10.0986147428912, -0.19536342e-3}
+	// tau^(t-2) for t = -3, -2, -1, 0, 1, 1.5 by products (the t = 0 and
+	// t = 1 terms vanish through t (t - 1)).
+	x := 1 / tau
+	x2 := x * x
+	x3 := x2 * x
+	tp := [6]float64{x3 * x2, x2 * x2, x3, x2, x, 1 / math.Sqrt(tau)}
 	ftt := -2.490888032 / (tau * tau)
 	for i, t := range pows {
-		ftt += ns[i] * t * (t - 1) * math.Pow(tau, t-2)
+		ftt += ns[i] * t * (t - 1) * tp[i]
 	}
 	for i, n := range [2]float64{0.791309509, 0.212236768} {
 		th := [2]float64{25.36365, 16.90741}[i]

@@ -20,7 +20,9 @@ func Diffusivity(l *Liquid, g *Gas, T, p float64) float64 {
 	}
 	mab := 2 / (1/(l.molarMass*1e3) + 1/(g.molarMass*1e3))
 	s := math.Cbrt(l.diffVolume) + math.Cbrt(g.diffVolume)
-	return 1.43e-2 * math.Pow(T, 1.75) / (p * math.Sqrt(mab) * s * s)
+	r := math.Sqrt(T)
+	t175 := T * r * math.Sqrt(r) // T^1.75
+	return 1.43e-2 * t175 / (p * math.Sqrt(mab) * s * s)
 }
 
 // MeanFreePath returns the gas-kinetic mean free path in m,
