@@ -327,7 +327,10 @@ func (sp *sprayPaths) state(i int, t float64, cursor *int) (d, frac float64) {
 	if sp.tr != nil && sp.tr[i] != nil && t < sp.join[i] {
 		return sp.tr[i].at(t)
 	}
-	if math.IsInf(sp.g0[i], 1) || sp.table == nil {
+	if math.IsInf(sp.g0[i], 1) || sp.table == nil || t <= sp.join[i] {
+		// At the moment it joins the table (t = 0 without transient
+		// heating) a bin is at its joining state exactly, not at the
+		// table's round trip of it.
 		return sp.dJoin[i], sp.scale[i]
 	}
 	d = sp.table.diameter(sp.g0[i]-(t-sp.join[i]), cursor)
@@ -400,12 +403,13 @@ func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) {
 		return
 	}
 	for k, t := range ts {
-		rem, s3, s2 := 0.0, 0.0, 0.0
+		rem, s3, s2, ev := 0.0, 0.0, 0.0, 0.0
 		for i := 0; i < n; i++ {
 			d, f := sp.state(i, t, &sp.cursor[i])
 			v := sp.w[i] * f
 			vol[i] = v
 			rem += v
+			ev += sp.w[i] * (1 - f)
 			if d > 0 {
 				// Number weight is conserved: n_i d³ scales with the
 				// remaining mass, and d² follows from d.
@@ -414,7 +418,7 @@ func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) {
 			}
 			sp.dNow[i] = d
 		}
-		evap[k] = math.Max(0, 1-rem)
+		evap[k] = math.Max(0, ev)
 		if s2 > 0 {
 			d32[k] = s3 / s2
 		}
@@ -431,12 +435,16 @@ func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) {
 	tb := sp.table
 	v0, last := tb.v[0], len(tb.v)-2
 	gone := 0 // bins [0, gone) have evaporated
+	evGone := 0.0
 	for k, t := range ts {
 		for gone < n && sp.life[gone] <= t {
 			vol[gone], sp.dNow[gone] = 0, 0
+			evGone += sp.w[gone]
 			gone++
 		}
-		rem, s2 := 0.0, 0.0
+		// The evaporated fraction is summed as Σ w (1 − (d/d0)³), not
+		// 1 − Σ w (d/d0)³, which cancels to rounding noise at early times.
+		rem, s2, ev := 0.0, 0.0, evGone
 		for i := gone; i < n; i++ {
 			if math.IsInf(sp.life[i], 1) {
 				v := sp.w[i]
@@ -447,7 +455,9 @@ func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) {
 			}
 			tau := sp.g0[i] - t
 			var d float64
-			if tau > 0 {
+			if t <= 0 {
+				d = sp.d0[i] // the initial state exactly (see state)
+			} else if tau > 0 {
 				v := math.Log(tau)
 				if v <= v0 {
 					d = math.Exp(tb.u[0] + (v-v0)/tb.p0)
@@ -467,14 +477,16 @@ func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) {
 				}
 			}
 			r := d / sp.d0[i]
-			v := sp.w[i] * (r * r * r)
+			f := r * r * r
+			v := sp.w[i] * f
 			vol[i], sp.dNow[i] = v, d
 			rem += v
+			ev += sp.w[i] * (1 - f)
 			if d > 0 {
 				s2 += v / d
 			}
 		}
-		evap[k] = math.Max(0, 1-rem)
+		evap[k] = math.Max(0, ev)
 		if s2 > 0 {
 			d32[k] = rem / s2
 		}

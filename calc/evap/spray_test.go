@@ -69,19 +69,20 @@ func TestSweepSteadyMatchesState(t *testing.T) {
 		vol := make([]float64, len(d))
 		now := make([]float64, len(d))
 		for k, tk := range h.T {
-			rem, s3, s2 := 0.0, 0.0, 0.0
+			rem, s3, s2, ev := 0.0, 0.0, 0.0, 0.0
 			for i := range d {
 				cur := -1
 				di, f := sp.state(i, tk, &cur)
 				v := sp.w[i] * f
 				vol[i], now[i] = v, di
 				rem += v
+				ev += sp.w[i] * (1 - f)
 				if di > 0 {
 					s3 += v
 					s2 += v / di
 				}
 			}
-			want := [3]float64{math.Max(0, 1-rem), 0, volumeMedian(now, vol, rem)}
+			want := [3]float64{math.Max(0, ev), 0, volumeMedian(now, vol, rem)}
 			if s2 > 0 {
 				want[1] = s3 / s2
 			}
