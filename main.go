@@ -1,7 +1,7 @@
 // Command fogbench is a local web app for sizing atomizers and sprays: drop
 // size distributions, the Laplace pressure and Kelvin raise of vapor pressure
 // per size class, evaporation of each class and of the whole spray, and a
-// shared SQLite case library.
+// case library shared in a SQLite file or a PostgreSQL database.
 //
 // Usage:
 //
@@ -10,6 +10,7 @@
 //	fogbench backup -db LIB FILE    consistent copy of a running library
 //	fogbench restore FILE -db LIB   replace a library with a checked backup
 //	fogbench report ID -o FILE.pdf  PDF report of a stored case
+//	fogbench migrate-store -from A -to B   move a library between SQLite and PostgreSQL
 package main
 
 import (
@@ -58,6 +59,8 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		return restoreCmd(args, stdout, stderr)
 	case "report":
 		return reportCmd(args, stderr)
+	case "migrate-store":
+		return migrateStoreCmd(args, stdout, stderr)
 	case "help", "-h", "--help":
 		fmt.Fprint(stdout, usage)
 		return 0
@@ -72,13 +75,16 @@ const usage = `usage:
   fogbench backup [-db fogbench.db] FILE   write a consistent copy of the library (safe while serving)
   fogbench restore FILE [-db fogbench.db]  replace the library with a checked backup (stop the server first)
   fogbench report CASE-ID -o FILE.pdf [-db fogbench.db] [-paper a4|letter]   PDF report of a stored case
+  fogbench migrate-store -from LIB -to LIB   copy a whole library into an empty one (SQLite file or postgres:// URL)
+
+-db takes a SQLite file or a postgres://USER@HOST/DB URL (docs/stores.md).
 `
 
 func serve(args []string, stderr io.Writer) int {
 	fs := flag.NewFlagSet("serve", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	addr := fs.String("addr", "127.0.0.1:8080", "address to listen on")
-	dbPath := fs.String("db", "fogbench.db", "SQLite case library (created with demo cases if missing)")
+	dbPath := fs.String("db", "fogbench.db", "case library: a SQLite file or a postgres:// URL (created with demo cases if new)")
 	verbose := fs.Bool("v", false, "log every request")
 	tokenFile := fs.String("token-file", "", "file holding the access token (or set FOGBENCH_TOKEN); required for a non-loopback -addr")
 	tlsCert := fs.String("tls-cert", "", "serve HTTPS with this PEM certificate (with -tls-key)")
@@ -121,13 +127,13 @@ func serve(args []string, stderr io.Writer) int {
 			logger.Error("closing the library", "err", err)
 			return
 		}
-		logger.Info("library closed", "db", *dbPath)
+		logger.Info("library closed", "db", st.Path())
 	}()
 	if n, err := st.SeedDemo(ctx); err != nil {
 		fmt.Fprintf(stderr, "fogbench: %v\n", err)
 		return 1
 	} else if n > 0 {
-		logger.Info("new library seeded with demo cases", "db", *dbPath, "cases", n)
+		logger.Info("new library seeded with demo cases", "db", st.Path(), "cases", n)
 	}
 	app := server.New(st, logger)
 	app.SecureCookies = tlsConfig != nil
@@ -143,7 +149,7 @@ func serve(args []string, stderr io.Writer) int {
 	if tlsConfig != nil {
 		scheme = "https"
 	}
-	logger.Info("fogbench is serving", "url", scheme+"://"+ln.Addr().String()+"/", "db", *dbPath)
+	logger.Info("fogbench is serving", "url", scheme+"://"+ln.Addr().String()+"/", "db", st.Path())
 	errc := make(chan error, 1)
 	go func() {
 		if tlsConfig != nil {
@@ -325,6 +331,9 @@ func backupCmd(args []string, stderr io.Writer) int {
 	defer st.Close()
 	if err := st.Backup(ctx, dest); err != nil {
 		fmt.Fprintf(stderr, "fogbench backup: %v\n", err)
+		if calc.ErrorCode(err) == calc.Invalid { // a PostgreSQL library: pg_dump
+			return 2
+		}
 		return 1
 	}
 	return 0
@@ -362,7 +371,7 @@ func reportCmd(args []string, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "fogbench report: -paper %q: use a4 or letter\n", *paper)
 		return 2
 	}
-	if _, err := os.Stat(*dbPath); err != nil {
+	if _, err := os.Stat(*dbPath); err != nil && !store.IsPostgres(*dbPath) {
 		fmt.Fprintf(stderr, "fogbench report: %v\n", err)
 		return 2
 	}

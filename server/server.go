@@ -17,7 +17,6 @@ import (
 	"fogbench/calc"
 	"fogbench/calc/units"
 	"fogbench/static"
-	"fogbench/store"
 	"fogbench/views"
 )
 
@@ -26,7 +25,7 @@ const MaxBodyBytes = 8 << 20
 
 // Server holds what the handlers share.
 type Server struct {
-	Store  *store.Store
+	Store  Library
 	Logger *slog.Logger
 	// Author names the person saving revisions when no account system
 	// says otherwise.
@@ -43,8 +42,8 @@ type Server struct {
 	results *resultCache
 }
 
-// New returns a server over the store.
-func New(st *store.Store, logger *slog.Logger) *Server {
+// New returns a server over the library (store.Open gives one).
+func New(st Library, logger *slog.Logger) *Server {
 	if logger == nil {
 		logger = slog.Default()
 	}

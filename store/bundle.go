@@ -61,8 +61,7 @@ type ExportOptions struct {
 // ordered by case number. Cases in the trash are left out unless named in
 // IDs; a named case that does not exist is an error.
 func (s *Store) Export(ctx context.Context, o ExportOptions) (Bundle, error) {
-	q := `SELECT c.id, c.uid, c.revision, c.updated_at, c.body, c.checksum,
-		(SELECT group_concat(tag, char(31)) FROM (SELECT tag FROM case_tags t WHERE t.case_id = c.id ORDER BY tag))
+	q := `SELECT c.id, c.uid, c.revision, c.updated_at, c.body, c.checksum, ` + s.d.tagList() + `
 		FROM cases c`
 	var args []any
 	b := Bundle{Format: BundleFormat, CreatedAt: s.now(), Cases: []BundleCase{}}
@@ -340,11 +339,16 @@ func (s *Store) Import(ctx context.Context, b Bundle, choices map[string]ImportC
 	if def == "" {
 		def = ImportKeepBoth
 	}
-	tx, err := s.write.BeginTx(ctx, nil)
+	tx, err := s.write.begin(ctx)
 	if err != nil {
 		return ImportResult{}, wrapTx("import", err)
 	}
 	defer tx.Rollback()
+	// Two imports at once would both plan to add a case; the library lock
+	// makes the second plan after the first has committed.
+	if err := s.d.lock(ctx, tx, lockLibrary); err != nil {
+		return ImportResult{}, wrapTx("import: lock", err)
+	}
 	items, err := planImport(ctx, tx, b)
 	if err != nil {
 		return ImportResult{}, err
@@ -411,9 +415,9 @@ func (s *Store) Import(ctx context.Context, b Bundle, choices map[string]ImportC
 
 // replaceInTx saves a bundle case as the newest revision of case id and
 // takes it out of the trash: the user asked for this version.
-func replaceInTx(ctx context.Context, tx *sql.Tx, id int64, bc BundleCase, author, now string) error {
+func replaceInTx(ctx context.Context, tx *txn, id int64, bc BundleCase, author, now string) error {
 	var rev int
-	if err := tx.QueryRowContext(ctx, `SELECT revision FROM cases WHERE id = ?`, id).Scan(&rev); err != nil {
+	if err := tx.QueryRowContext(ctx, `SELECT revision FROM cases WHERE id = ?`+tx.d.forUpdate(), id).Scan(&rev); err != nil {
 		return wrapTx(fmt.Sprintf("import: read case %d", id), err)
 	}
 	body, err := encodeCase(bc.decoded)

@@ -69,7 +69,7 @@ func (s *Store) now() string { return s.Now().UTC().Format(timeLayout) }
 
 // CreateCase stores a new case as revision 1.
 func (s *Store) CreateCase(ctx context.Context, c calc.Case, author string) (CaseRecord, error) {
-	tx, err := s.write.BeginTx(ctx, nil)
+	tx, err := s.write.begin(ctx)
 	if err != nil {
 		return CaseRecord{}, wrapTx("create case", err)
 	}
@@ -84,7 +84,7 @@ func (s *Store) CreateCase(ctx context.Context, c calc.Case, author string) (Cas
 	return s.GetCase(ctx, id)
 }
 
-func insertCase(ctx context.Context, tx *sql.Tx, c calc.Case, author string, parent int64, now string) (int64, error) {
+func insertCase(ctx context.Context, tx *txn, c calc.Case, author string, parent int64, now string) (int64, error) {
 	body, err := encodeCase(c)
 	if err != nil {
 		return 0, fmt.Errorf("store: encode case: %w", err)
@@ -94,13 +94,10 @@ func insertCase(ctx context.Context, tx *sql.Tx, c calc.Case, author string, par
 	if parent > 0 {
 		parentArg = parent
 	}
-	res, err := tx.ExecContext(ctx, `INSERT INTO cases(name, fluid, model, family, revision, body, checksum, parent_id, created_at, updated_at)
-		VALUES (?, ?, ?, ?, 1, ?, ?, ?, ?, ?)`,
-		c.Name, c.Fluid, c.Distribution.Model, c.Distribution.Family, string(body), sum, parentArg, now, now)
-	if err != nil {
-		return 0, wrapTx("insert case", err)
-	}
-	id, err := res.LastInsertId()
+	var id int64
+	err = tx.QueryRowContext(ctx, `INSERT INTO cases(name, fluid, model, family, revision, body, checksum, parent_id, created_at, updated_at)
+		VALUES (?, ?, ?, ?, 1, ?, ?, ?, ?, ?) RETURNING id`,
+		c.Name, c.Fluid, c.Distribution.Model, c.Distribution.Family, string(body), sum, parentArg, now, now).Scan(&id)
 	if err != nil {
 		return 0, wrapTx("insert case", err)
 	}
@@ -110,7 +107,7 @@ func insertCase(ctx context.Context, tx *sql.Tx, c calc.Case, author string, par
 	return id, nil
 }
 
-func insertRevision(ctx context.Context, tx *sql.Tx, id int64, rev int, name string, body []byte, sum, author, now string) error {
+func insertRevision(ctx context.Context, tx *txn, id int64, rev int, name string, body []byte, sum, author, now string) error {
 	_, err := tx.ExecContext(ctx, `INSERT INTO revisions(case_id, revision, name, body, checksum, author, created_at) VALUES (?, ?, ?, ?, ?, ?, ?)`,
 		id, rev, name, string(body), sum, author, now)
 	if err != nil {
@@ -123,11 +120,14 @@ func insertRevision(ctx context.Context, tx *sql.Tx, id int64, rev int, name str
 // user started from; when it is not the newest, nothing is written and a
 // *ConflictError carries the stored version.
 func (s *Store) UpdateCase(ctx context.Context, id int64, base int, c calc.Case, author string) (CaseRecord, error) {
-	tx, err := s.write.BeginTx(ctx, nil)
+	tx, err := s.write.begin(ctx)
 	if err != nil {
 		return CaseRecord{}, wrapTx("update case", err)
 	}
 	defer tx.Rollback()
+	if err := lockCase(ctx, tx, id); err != nil {
+		return CaseRecord{}, err
+	}
 	cur, err := getCase(ctx, tx, id)
 	if err != nil {
 		return CaseRecord{}, err
@@ -145,9 +145,20 @@ func (s *Store) UpdateCase(ctx context.Context, id int64, base int, c calc.Case,
 	}
 	now := s.now()
 	rev := cur.Revision + 1
-	if _, err := tx.ExecContext(ctx, `UPDATE cases SET name = ?, fluid = ?, model = ?, family = ?, revision = ?, body = ?, checksum = ?, updated_at = ? WHERE id = ?`,
-		c.Name, c.Fluid, c.Distribution.Model, c.Distribution.Family, rev, string(body), sum, now, id); err != nil {
+	// The row lock makes the revision read above current; the condition
+	// on the revision is a second guard, so a save can never overwrite a
+	// revision it did not start from.
+	res, err := tx.ExecContext(ctx, `UPDATE cases SET name = ?, fluid = ?, model = ?, family = ?, revision = ?, body = ?, checksum = ?, updated_at = ? WHERE id = ? AND revision = ?`,
+		c.Name, c.Fluid, c.Distribution.Model, c.Distribution.Family, rev, string(body), sum, now, id, cur.Revision)
+	if err != nil {
 		return CaseRecord{}, wrapTx(fmt.Sprintf("update case %d", id), err)
+	}
+	if n, err := res.RowsAffected(); err != nil || n != 1 {
+		tx.Rollback()
+		if latest, gerr := s.GetCase(ctx, id); gerr == nil {
+			return CaseRecord{}, &ConflictError{Base: base, Current: latest}
+		}
+		return CaseRecord{}, calc.Errorf(calc.Conflict, "case %d changed while it was being saved; reload it", id)
 	}
 	if err := insertRevision(ctx, tx, id, rev, c.Name, body, sum, author, now); err != nil {
 		return CaseRecord{}, err
@@ -156,6 +167,21 @@ func (s *Store) UpdateCase(ctx context.Context, id int64, base int, c calc.Case,
 		return CaseRecord{}, wrapTx("update case", err)
 	}
 	return s.GetCase(ctx, id)
+}
+
+// lockCase locks case id's row until the transaction ends, so a
+// read-then-write of the case cannot interleave with another server's; a
+// missing case is NotFound.
+func lockCase(ctx context.Context, tx *txn, id int64) error {
+	var got int64
+	err := tx.QueryRowContext(ctx, `SELECT id FROM cases WHERE id = ?`+tx.d.forUpdate(), id).Scan(&got)
+	if errors.Is(err, sql.ErrNoRows) {
+		return calc.Errorf(calc.NotFound, "case %d does not exist", id)
+	}
+	if err != nil {
+		return wrapTx(fmt.Sprintf("lock case %d", id), err)
+	}
+	return nil
 }
 
 type queryer interface {
@@ -256,7 +282,8 @@ func (s *Store) ListCases(ctx context.Context, o ListOptions) ([]CaseSummary, in
 	}
 	if q := strings.TrimSpace(o.Query); q != "" {
 		like := "%" + escapeLike(q) + "%"
-		where = append(where, `(c.name LIKE ? ESCAPE '\' OR c.body LIKE ? ESCAPE '\')`)
+		op := s.d.like()
+		where = append(where, `(c.name `+op+` ? ESCAPE '\' OR c.body `+op+` ? ESCAPE '\')`)
 		args = append(args, like, like)
 	}
 	if o.Tag != "" {
@@ -279,7 +306,7 @@ func (s *Store) ListCases(ctx context.Context, o ListOptions) ([]CaseSummary, in
 	order := "c.updated_at DESC, c.id DESC"
 	switch o.Sort {
 	case "name":
-		order = "c.name COLLATE NOCASE, c.id"
+		order = s.d.foldCase("c.name") + ", c.id"
 	case "id":
 		order = "c.id"
 	}
@@ -288,8 +315,7 @@ func (s *Store) ListCases(ctx context.Context, o ListOptions) ([]CaseSummary, in
 		limit = 50
 	}
 	limit = min(limit, 500)
-	rows, err := s.read.QueryContext(ctx, `SELECT c.id, c.name, c.fluid, c.model, c.family, c.revision, c.updated_at,
-		(SELECT group_concat(tag, char(31)) FROM (SELECT tag FROM case_tags t WHERE t.case_id = c.id ORDER BY tag))
+	rows, err := s.read.QueryContext(ctx, `SELECT c.id, c.name, c.fluid, c.model, c.family, c.revision, c.updated_at, `+s.d.tagList()+`
 		FROM cases c WHERE `+cond+` ORDER BY `+order+` LIMIT ? OFFSET ?`, append(args, limit, max(o.Offset, 0))...)
 	if err != nil {
 		return nil, 0, fmt.Errorf("store: list cases: %w", err)
@@ -375,7 +401,7 @@ func (s *Store) GetRevision(ctx context.Context, id int64, rev int) (Revision, e
 // DuplicateCase copies the newest revision of a case into a new case named
 // name, keeping a link to the parent.
 func (s *Store) DuplicateCase(ctx context.Context, id int64, name, author string) (CaseRecord, error) {
-	tx, err := s.write.BeginTx(ctx, nil)
+	tx, err := s.write.begin(ctx)
 	if err != nil {
 		return CaseRecord{}, wrapTx("duplicate case", err)
 	}
@@ -427,12 +453,12 @@ func (s *Store) setDeleted(ctx context.Context, id int64, deleted bool) error {
 // SetTags replaces a case's tags. Tags are trimmed, lower-cased and
 // de-duplicated.
 func (s *Store) SetTags(ctx context.Context, id int64, tags []string) error {
-	tx, err := s.write.BeginTx(ctx, nil)
+	tx, err := s.write.begin(ctx)
 	if err != nil {
 		return wrapTx("set tags", err)
 	}
 	defer tx.Rollback()
-	if _, err := getCase(ctx, tx, id); err != nil {
+	if err := lockCase(ctx, tx, id); err != nil {
 		return err
 	}
 	if err := setTags(ctx, tx, id, tags); err != nil {
@@ -457,7 +483,7 @@ func NormalizeTags(tags []string) []string {
 	return out
 }
 
-func setTags(ctx context.Context, tx *sql.Tx, id int64, tags []string) error {
+func setTags(ctx context.Context, tx *txn, id int64, tags []string) error {
 	if _, err := tx.ExecContext(ctx, `DELETE FROM case_tags WHERE case_id = ?`, id); err != nil {
 		return wrapTx("clear tags", err)
 	}

@@ -43,22 +43,27 @@ func DemoCases() ([]calc.Case, error) {
 // a first start shows examples but a team that emptied its library is not
 // refilled.
 func (s *Store) SeedDemo(ctx context.Context) (int, error) {
+	cases, err := DemoCases()
+	if err != nil {
+		return 0, err
+	}
+	tx, err := s.write.begin(ctx)
+	if err != nil {
+		return 0, wrapTx("seed demo", err)
+	}
+	defer tx.Rollback()
+	// Counted under the library lock, so two servers starting at once on
+	// one PostgreSQL seed the examples once.
+	if err := s.d.lock(ctx, tx, lockLibrary); err != nil {
+		return 0, wrapTx("seed demo: lock", err)
+	}
 	var ever int
-	if err := s.read.QueryRowContext(ctx, `SELECT count(*) FROM cases`).Scan(&ever); err != nil {
+	if err := tx.QueryRowContext(ctx, `SELECT count(*) FROM cases`).Scan(&ever); err != nil {
 		return 0, fmt.Errorf("store: seed demo: %w", err)
 	}
 	if ever > 0 {
 		return 0, nil
 	}
-	cases, err := DemoCases()
-	if err != nil {
-		return 0, err
-	}
-	tx, err := s.write.BeginTx(ctx, nil)
-	if err != nil {
-		return 0, wrapTx("seed demo", err)
-	}
-	defer tx.Rollback()
 	now := s.now()
 	for _, c := range cases {
 		id, err := insertCase(ctx, tx, c, "fogbench demo", 0, now)

@@ -50,12 +50,12 @@ func (s *Store) CreateLiquid(ctx context.Context, spec fluid.CustomSpec) (Liquid
 	if err := checkLiquid(spec); err != nil {
 		return LiquidRecord{}, err
 	}
-	tx, err := s.write.BeginTx(ctx, nil)
+	tx, err := s.write.begin(ctx)
 	if err != nil {
 		return LiquidRecord{}, wrapTx("create liquid", err)
 	}
 	defer tx.Rollback()
-	if _, err := getLiquid(ctx, tx, spec.ID); err == nil {
+	if _, err := getLiquid(ctx, tx, spec.ID, ""); err == nil {
 		return LiquidRecord{}, &valid.FieldError{Field: "custom.id", Value: spec.ID, Message: "is taken by another user liquid; choose another id"}
 	} else if calc.ErrorCode(err) != calc.NotFound {
 		return LiquidRecord{}, err
@@ -69,13 +69,16 @@ func (s *Store) CreateLiquid(ctx context.Context, spec fluid.CustomSpec) (Liquid
 	return s.GetLiquid(ctx, spec.ID)
 }
 
-func insertLiquid(ctx context.Context, tx *sql.Tx, spec fluid.CustomSpec, now string) error {
+func insertLiquid(ctx context.Context, tx *txn, spec fluid.CustomSpec, now string) error {
 	body, err := json.Marshal(spec)
 	if err != nil {
 		return fmt.Errorf("store: encode liquid %s: %w", spec.ID, err)
 	}
 	_, err = tx.ExecContext(ctx, `INSERT INTO custom_liquids(id, name, revision, body, created_at, updated_at) VALUES (?, ?, 1, ?, ?, ?)`,
 		spec.ID, spec.Name, string(body), now, now)
+	if tx.d.isDuplicate(err) { // another server created it since the check
+		return &valid.FieldError{Field: "custom.id", Value: spec.ID, Message: "is taken by another user liquid; choose another id"}
+	}
 	return wrapTx("insert liquid "+spec.ID, err)
 }
 
@@ -89,12 +92,12 @@ func (s *Store) UpdateLiquid(ctx context.Context, id string, base int, spec flui
 	if err := checkLiquid(spec); err != nil {
 		return LiquidRecord{}, err
 	}
-	tx, err := s.write.BeginTx(ctx, nil)
+	tx, err := s.write.begin(ctx)
 	if err != nil {
 		return LiquidRecord{}, wrapTx("update liquid", err)
 	}
 	defer tx.Rollback()
-	cur, err := getLiquid(ctx, tx, id)
+	cur, err := getLiquid(ctx, tx, id, tx.d.forUpdate())
 	if err != nil {
 		return LiquidRecord{}, err
 	}
@@ -105,8 +108,8 @@ func (s *Store) UpdateLiquid(ctx context.Context, id string, base int, spec flui
 	if err != nil {
 		return LiquidRecord{}, fmt.Errorf("store: encode liquid %s: %w", id, err)
 	}
-	if _, err := tx.ExecContext(ctx, `UPDATE custom_liquids SET name = ?, revision = ?, body = ?, updated_at = ? WHERE id = ?`,
-		spec.Name, cur.Revision+1, string(body), s.now(), id); err != nil {
+	if _, err := tx.ExecContext(ctx, `UPDATE custom_liquids SET name = ?, revision = ?, body = ?, updated_at = ? WHERE id = ? AND revision = ?`,
+		spec.Name, cur.Revision+1, string(body), s.now(), id, cur.Revision); err != nil {
 		return LiquidRecord{}, wrapTx("update liquid "+id, err)
 	}
 	if err := tx.Commit(); err != nil {
@@ -117,13 +120,14 @@ func (s *Store) UpdateLiquid(ctx context.Context, id string, base int, spec flui
 
 // GetLiquid returns a stored user liquid; an unknown id is NotFound.
 func (s *Store) GetLiquid(ctx context.Context, id string) (LiquidRecord, error) {
-	return getLiquid(ctx, s.read, id)
+	return getLiquid(ctx, s.read, id, "")
 }
 
-func getLiquid(ctx context.Context, q queryer, id string) (LiquidRecord, error) {
+// getLiquid reads a liquid; lock is "" or the dialect's FOR UPDATE.
+func getLiquid(ctx context.Context, q queryer, id, lock string) (LiquidRecord, error) {
 	var rec LiquidRecord
 	var body, created, updated string
-	err := q.QueryRowContext(ctx, `SELECT revision, body, created_at, updated_at FROM custom_liquids WHERE id = ?`, id).
+	err := q.QueryRowContext(ctx, `SELECT revision, body, created_at, updated_at FROM custom_liquids WHERE id = ?`+lock, id).
 		Scan(&rec.Revision, &body, &created, &updated)
 	if errors.Is(err, sql.ErrNoRows) {
 		return LiquidRecord{}, calc.Errorf(calc.NotFound, "there is no user liquid %q", id)
@@ -141,7 +145,7 @@ func getLiquid(ctx context.Context, q queryer, id string) (LiquidRecord, error) 
 
 // ListLiquids returns every user liquid, by name.
 func (s *Store) ListLiquids(ctx context.Context) ([]LiquidRecord, error) {
-	rows, err := s.read.QueryContext(ctx, `SELECT id FROM custom_liquids ORDER BY name COLLATE NOCASE, id`)
+	rows, err := s.read.QueryContext(ctx, `SELECT id FROM custom_liquids ORDER BY `+s.d.foldCase("name")+`, id`)
 	if err != nil {
 		return nil, fmt.Errorf("store: list liquids: %w", err)
 	}

@@ -35,6 +35,9 @@ type RestoreReport struct {
 // crashed); stop the server before restoring.
 func RestoreFile(ctx context.Context, src, dest string) (RestoreReport, error) {
 	var rep RestoreReport
+	if IsPostgres(dest) || IsPostgres(src) {
+		return rep, calc.Errorf(calc.Invalid, "a PostgreSQL library is restored with pg_restore from a pg_dump file, not with fogbench restore; see docs/stores.md")
+	}
 	if _, err := os.Stat(src); err != nil {
 		return rep, calc.Errorf(calc.Invalid, "backup %s: %v", src, err)
 	}
@@ -106,7 +109,7 @@ func checkBackup(ctx context.Context, src string) error {
 	if err := db.QueryRowContext(ctx, `SELECT max(version) FROM schema_migrations`).Scan(&v); err != nil {
 		return calc.Errorf(calc.Invalid, "%s: cannot read its schema version: %v", src, err)
 	}
-	ms, err := loadMigrations()
+	ms, err := loadMigrations(sqliteMigrations)
 	if err != nil {
 		return err
 	}

@@ -1,7 +1,8 @@
-// Package store keeps fogbench's case library in SQLite: one database file
-// shared by a team, written through one connection in immediate transactions
-// and read through a small pool, with numbered migrations embedded in the
-// binary.
+// Package store keeps fogbench's case library in SQLite (one file, the
+// default) or in PostgreSQL (a database several servers share). Both run the
+// same code and the same SQL through a small dialect (dialect.go,
+// sqlite.go, postgres.go), with numbered migrations for each database
+// embedded in the binary and kept in step.
 package store
 
 import (
@@ -11,80 +12,67 @@ import (
 	"errors"
 	"fmt"
 	"io/fs"
-	"net/url"
 	"path"
 	"sort"
 	"strconv"
 	"strings"
 	"time"
-
-	"github.com/mattn/go-sqlite3"
 )
 
-//go:embed migrations/*.sql
+// Each database has its own migrations with the same numbered names:
+// migrations/ for SQLite, migrations_pg/ for PostgreSQL.
+//
+//go:embed migrations/*.sql migrations_pg/*.sql
 var migrationFS embed.FS
 
-// Store is the case library.
+const (
+	sqliteMigrations   = "migrations"
+	postgresMigrations = "migrations_pg"
+)
+
+// Store is the case library, in either database.
 type Store struct {
-	write *sql.DB // one connection: SQLite has one writer at a time
-	read  *sql.DB // query-only pool
+	write conn // SQLite: one connection, one writer at a time
+	read  conn // SQLite: query-only pool; PostgreSQL: the same pool as write
+	d     dialect
 	path  string
-	// Now is the clock; tests replace it.
-	Now func() time.Time
+	// Clock is the time source; tests replace it.
+	Clock func() time.Time
 }
 
-// dsn builds the connection string with the settings every connection needs:
-// WAL so readers never block the writer, foreign keys, a busy timeout, and
-// immediate write transactions so a read-then-write waits for the lock
-// instead of failing with SQLITE_BUSY (see DEVELOPERS.md).
-func dsn(path string, readOnly bool) string {
-	q := url.Values{}
-	q.Set("_journal_mode", "WAL")
-	q.Set("_busy_timeout", "5000")
-	q.Set("_foreign_keys", "on")
-	q.Set("_synchronous", "NORMAL")
-	if readOnly {
-		q.Set("_query_only", "1")
-	} else {
-		q.Set("_txlock", "immediate")
-	}
-	return "file:" + path + "?" + q.Encode()
+func newStore(w conn, path string) *Store {
+	return &Store{write: w, read: w, d: w.d, path: path, Clock: func() time.Time { return time.Now().UTC() }}
 }
 
-// Open opens (creating if needed) the library at path and applies any
-// migrations it lacks.
-func Open(ctx context.Context, path string) (*Store, error) {
-	w, err := sql.Open("sqlite3", dsn(path, false))
-	if err != nil {
-		return nil, fmt.Errorf("store: open %s: %w", path, err)
+// Open opens the library named by dsnOrPath, creating it if needed, and
+// applies any migrations it lacks: a postgres:// or postgresql:// URL opens
+// a PostgreSQL database (which must exist), anything else is a SQLite file.
+func Open(ctx context.Context, dsnOrPath string) (*Store, error) {
+	if IsPostgres(dsnOrPath) {
+		return openPostgres(ctx, dsnOrPath)
 	}
-	w.SetMaxOpenConns(1)
-	s := &Store{write: w, path: path, Now: func() time.Time { return time.Now().UTC() }}
-	if err := w.PingContext(ctx); err != nil {
-		w.Close()
-		return nil, fmt.Errorf("store: open %s: %w", path, err)
-	}
-	if err := s.migrate(ctx); err != nil {
-		w.Close()
-		return nil, err
-	}
-	r, err := sql.Open("sqlite3", dsn(path, true))
-	if err != nil {
-		w.Close()
-		return nil, fmt.Errorf("store: open reader %s: %w", path, err)
-	}
-	r.SetMaxOpenConns(4)
-	s.read = r
-	return s, nil
+	return openSQLite(ctx, dsnOrPath)
 }
 
-// Close closes both pools.
+// Now is the store's clock.
+func (s *Store) Now() time.Time { return s.Clock() }
+
+// Close closes the connections.
 func (s *Store) Close() error {
-	return errors.Join(s.read.Close(), s.write.Close())
+	if s.read.db == s.write.db {
+		return s.write.db.Close()
+	}
+	return errors.Join(s.read.db.Close(), s.write.db.Close())
 }
 
-// Path is the database file.
+// Path is the database file, or the PostgreSQL URL without its password.
 func (s *Store) Path() string { return s.path }
+
+// IsPostgres reports whether the library lives in PostgreSQL.
+func (s *Store) IsPostgres() bool {
+	_, ok := s.d.(postgresDialect)
+	return ok
+}
 
 type migration struct {
 	version int
@@ -92,8 +80,8 @@ type migration struct {
 	sql     string
 }
 
-func loadMigrations() ([]migration, error) {
-	entries, err := fs.ReadDir(migrationFS, "migrations")
+func loadMigrations(dir string) ([]migration, error) {
+	entries, err := fs.ReadDir(migrationFS, dir)
 	if err != nil {
 		return nil, err
 	}
@@ -105,7 +93,7 @@ func loadMigrations() ([]migration, error) {
 		if !ok || err != nil {
 			return nil, fmt.Errorf("store: migration %s: name must be NNNN_name.sql", base)
 		}
-		body, err := migrationFS.ReadFile(path.Join("migrations", base))
+		body, err := migrationFS.ReadFile(path.Join(dir, base))
 		if err != nil {
 			return nil, err
 		}
@@ -123,13 +111,12 @@ func loadMigrations() ([]migration, error) {
 }
 
 // migrate applies each migration the database lacks, each in its own
-// transaction together with the row that records it.
-func (s *Store) migrate(ctx context.Context) error {
-	if _, err := s.write.ExecContext(ctx, `CREATE TABLE IF NOT EXISTS schema_migrations (
-		version INTEGER PRIMARY KEY, name TEXT NOT NULL, applied_at TEXT NOT NULL)`); err != nil {
-		return fmt.Errorf("store: create schema_migrations: %w", err)
-	}
-	ms, err := loadMigrations()
+// transaction together with the row that records it. The transaction first
+// takes the migration lock (PostgreSQL: an advisory lock; SQLite: the
+// immediate transaction's write lock), so two servers starting at once
+// apply each migration once.
+func (s *Store) migrate(ctx context.Context, dir string) error {
+	ms, err := loadMigrations(dir)
 	if err != nil {
 		return err
 	}
@@ -142,11 +129,18 @@ func (s *Store) migrate(ctx context.Context) error {
 }
 
 func (s *Store) applyMigration(ctx context.Context, m migration) error {
-	tx, err := s.write.BeginTx(ctx, nil)
+	tx, err := s.write.begin(ctx)
 	if err != nil {
 		return fmt.Errorf("store: migration %04d: %w", m.version, err)
 	}
 	defer tx.Rollback()
+	if err := s.d.lock(ctx, tx, lockMigrate); err != nil {
+		return fmt.Errorf("store: migration %04d: lock: %w", m.version, err)
+	}
+	if _, err := tx.ExecContext(ctx, `CREATE TABLE IF NOT EXISTS schema_migrations (
+		version INTEGER PRIMARY KEY, name TEXT NOT NULL, applied_at TEXT NOT NULL)`); err != nil {
+		return fmt.Errorf("store: create schema_migrations: %w", err)
+	}
 	var n int
 	if err := tx.QueryRowContext(ctx, `SELECT count(*) FROM schema_migrations WHERE version = ?`, m.version).Scan(&n); err != nil {
 		return fmt.Errorf("store: migration %04d: %w", m.version, err)
@@ -171,30 +165,28 @@ func (s *Store) SchemaVersion(ctx context.Context) (int, error) {
 	return int(v.Int64), err
 }
 
-// IntegrityCheck runs PRAGMA integrity_check and returns an error unless the
-// answer is "ok".
+// IntegrityCheck runs the database's own check (SQLite: PRAGMA
+// integrity_check must answer "ok") and then the library's: every case's
+// newest revision is stored, with the case's checksum.
 func (s *Store) IntegrityCheck(ctx context.Context) error {
-	var res string
-	if err := s.write.QueryRowContext(ctx, `PRAGMA integrity_check`).Scan(&res); err != nil {
+	if err := s.d.integrity(ctx, s.write.db); err != nil {
+		return err
+	}
+	var bad int
+	if err := s.write.QueryRowContext(ctx, `SELECT count(*) FROM cases c
+		LEFT JOIN revisions r ON r.case_id = c.id AND r.revision = c.revision
+		WHERE r.case_id IS NULL OR r.checksum <> c.checksum`).Scan(&bad); err != nil {
 		return fmt.Errorf("store: integrity check: %w", err)
 	}
-	if res != "ok" {
-		return fmt.Errorf("store: integrity check: %s", res)
+	if bad > 0 {
+		return fmt.Errorf("store: integrity check: %d cases lack their newest revision", bad)
 	}
 	return nil
 }
 
-// Backup writes a consistent copy of the library to dest with VACUUM INTO,
-// which is safe while the server runs (readers and the writer carry on).
+// Backup writes a consistent copy of a SQLite library to dest (VACUUM INTO,
+// safe while the server runs). A PostgreSQL library is backed up with
+// pg_dump; Backup says so as an invalid-input error.
 func (s *Store) Backup(ctx context.Context, dest string) error {
-	if _, err := s.write.ExecContext(ctx, `VACUUM INTO ?`, dest); err != nil {
-		return fmt.Errorf("store: backup to %s: %w", dest, err)
-	}
-	return nil
-}
-
-// isBusy reports SQLite lock contention that outlasted the busy timeout.
-func isBusy(err error) bool {
-	var se sqlite3.Error
-	return errors.As(err, &se) && (se.Code == sqlite3.ErrBusy || se.Code == sqlite3.ErrLocked)
+	return s.d.backup(ctx, s.write.db, dest)
 }
