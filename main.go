@@ -27,8 +27,11 @@ import (
 	"net/http"
 	"os"
 	"os/signal"
+	"runtime"
 	"strconv"
 	"strings"
+	"sync"
+	"sync/atomic"
 	"syscall"
 	"time"
 
@@ -249,21 +252,17 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "fogbench eval: %s: %v\n", name, err)
 		return 2
 	}
-	results := make([]*calc.Result, len(cases))
-	for i, c := range cases {
-		res, err := calc.Evaluate(c)
-		if err != nil {
-			where := name
-			if len(cases) > 1 {
-				where = fmt.Sprintf("%s: case %d", name, i+1)
-			}
-			fmt.Fprintf(stderr, "fogbench eval: %s: %v\n", where, oneLine(err))
-			if calc.ErrorCode(err) == calc.Internal {
-				return 1
-			}
-			return 2
+	results, i, err := evaluateAll(cases, runtime.GOMAXPROCS(0))
+	if err != nil {
+		where := name
+		if len(cases) > 1 {
+			where = fmt.Sprintf("%s: case %d", name, i+1)
 		}
-		results[i] = res
+		fmt.Fprintf(stderr, "fogbench eval: %s: %v\n", where, oneLine(err))
+		if calc.ErrorCode(err) == calc.Internal {
+			return 1
+		}
+		return 2
 	}
 	// Compact JSON: indenting doubled the bytes and took about a sixth of
 	// a batch's CPU. A single case printed to a terminal stays indented
@@ -281,6 +280,43 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		return 1
 	}
 	return 0
+}
+
+// evaluateAll evaluates the cases on up to workers goroutines (cases are
+// independent and calc.Evaluate is safe for concurrent use) and returns the
+// results in input order, or the first failing case in input order with its
+// index and error, as a one-by-one loop would: cases after a failure are
+// skipped, cases before it are always evaluated.
+func evaluateAll(cases []calc.Case, workers int) ([]*calc.Result, int, error) {
+	n := len(cases)
+	results := make([]*calc.Result, n)
+	errs := make([]error, n)
+	var next, firstBad atomic.Int64
+	firstBad.Store(int64(n))
+	var wg sync.WaitGroup
+	for range max(1, min(workers, n)) {
+		wg.Go(func() {
+			for {
+				i := next.Add(1) - 1
+				if i >= int64(n) || i > firstBad.Load() {
+					return
+				}
+				res, err := calc.Evaluate(cases[i])
+				if err != nil {
+					errs[i] = err
+					for bad := firstBad.Load(); i < bad && !firstBad.CompareAndSwap(bad, i); bad = firstBad.Load() {
+					}
+					continue
+				}
+				results[i] = res
+			}
+		})
+	}
+	wg.Wait()
+	if bad := int(firstBad.Load()); bad < n {
+		return nil, bad, errs[bad]
+	}
+	return results, 0, nil
 }
 
 // isTerminal reports whether w is a character device such as a terminal.

@@ -4,11 +4,13 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
 
+	"fogbench/calc"
 	"fogbench/store"
 )
 
@@ -80,6 +82,54 @@ func TestEvalWritesCompactJSON(t *testing.T) {
 	defer f.Close()
 	if isTerminal(&out) || isTerminal(f) {
 		t.Fatal("a buffer or a regular file taken for a terminal")
+	}
+}
+
+// Cases evaluated on several goroutines come back in input order, equal
+// to one-by-one evaluation, and the failure reported is the first in input
+// order whatever the number of workers.
+func TestEvaluateAllKeepsOrder(t *testing.T) {
+	one := func(name, fluid string, x float64) string {
+		return fmt.Sprintf(`{"format":"fogbench-case/1","name":%q,"fluid":%q,"liquid_temperature_k":300,
+		"gas":{"pressure_pa":101325,"temperature_k":320},"distribution":{"model":"rosin-rammler","x_m":%g,"q":3,"bins":8}}`, name, fluid, x)
+	}
+	var good, bad []string
+	for i := range 12 {
+		good = append(good, one(fmt.Sprint(i), "water", float64(i+1)*5e-6))
+		f := "water"
+		if i == 4 || i == 9 {
+			f = "no-such-liquid"
+		}
+		bad = append(bad, one(fmt.Sprint(i), f, float64(i+1)*5e-6))
+	}
+	goodCases, err := calc.Decode(strings.NewReader("[" + strings.Join(good, ",") + "]"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	badCases, err := calc.Decode(strings.NewReader("[" + strings.Join(bad, ",") + "]"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, workers := range []int{1, 2, 5, 32} {
+		res, _, err := evaluateAll(goodCases, workers)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i, r := range res {
+			want, err := calc.Evaluate(goodCases[i])
+			if err != nil {
+				t.Fatal(err)
+			}
+			a, _ := json.Marshal(r)
+			b, _ := json.Marshal(want)
+			if !bytes.Equal(a, b) {
+				t.Fatalf("%d workers: result %d differs from one-by-one evaluation", workers, i)
+			}
+		}
+		_, i, err := evaluateAll(badCases, workers)
+		if err == nil || i != 4 || !strings.Contains(err.Error(), "no-such-liquid") {
+			t.Fatalf("%d workers: failure at case %d (%v), want case index 4", workers, i, err)
+		}
 	}
 }
 
