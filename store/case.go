@@ -63,9 +63,16 @@ func encodeCase(c calc.Case) ([]byte, error) {
 	return c.Encode()
 }
 
-const timeLayout = time.RFC3339Nano
+// timeLayout reads stored times (any fraction width); storedTimeLayout
+// writes them with a fixed nine-digit fraction, so that sorting the text
+// sorts the times (RFC 3339 with trailing zeros trimmed put 05.1Z after
+// 05.12Z).
+const (
+	timeLayout       = time.RFC3339Nano
+	storedTimeLayout = "2006-01-02T15:04:05.000000000Z07:00"
+)
 
-func (s *Store) now() string { return s.Now().UTC().Format(timeLayout) }
+func (s *Store) now() string { return s.Now().UTC().Format(storedTimeLayout) }
 
 // CreateCase stores a new case as revision 1.
 func (s *Store) CreateCase(ctx context.Context, c calc.Case, author string) (CaseRecord, error) {

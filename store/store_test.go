@@ -469,3 +469,15 @@ func TestNumberedPlaceholders(t *testing.T) {
 		}
 	}
 }
+
+// Stored times sort as text in time order, also within one second.
+func TestStoredTimesSortAsText(t *testing.T) {
+	a := time.Date(2026, 1, 2, 3, 4, 5, 100_000_000, time.UTC).Format(storedTimeLayout)
+	b := time.Date(2026, 1, 2, 3, 4, 5, 120_000_000, time.UTC).Format(storedTimeLayout)
+	if !(a < b) {
+		t.Fatalf("%s does not sort before %s", a, b)
+	}
+	if got, err := time.Parse(timeLayout, a); err != nil || got.Nanosecond() != 100_000_000 {
+		t.Fatalf("read back %v %v", got, err)
+	}
+}

@@ -328,3 +328,11 @@ func (f FormView) VaporModes() []Option {
 		{"partial_pressure", "partial pressure, Pa"},
 	}
 }
+
+// CountText says how many cases match, in words that agree in number.
+func (v LibraryView) CountText() string {
+	if v.Total == 1 {
+		return "1 case"
+	}
+	return fmt.Sprintf("%d cases", v.Total)
+}
