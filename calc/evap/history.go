@@ -186,7 +186,8 @@ func (s *Spray) History(maxTime float64) (History, error) {
 	if sp.heldWeight > 0 {
 		h.Warnings = append(h.Warnings, fmt.Sprintf("%.3g %% of the spray volume is in drops that do not evaporate (at or above the Kelvin equilibrium size, or not within the time considered); without transient heating they are held at their initial size (growth is not modelled)", 100*sp.heldWeight))
 	}
-	h.T50, h.T90, h.T99 = sp.crossing(0.5), sp.crossing(0.9), sp.crossing(0.99)
+	cr := sp.crossings(0.5, 0.9, 0.99)
+	h.T50, h.T90, h.T99 = cr[0], cr[1], cr[2]
 	for _, x := range []struct {
 		t    float64
 		name string
@@ -349,12 +350,15 @@ func (sp *sprayPaths) remaining(t float64) float64 {
 	return m
 }
 
-// crossing returns the first time at which the evaporated fraction reaches
-// x, or +Inf. Without transient heating the remaining mass falls
-// monotonically and Brent's method on [0, longest life] finds it; with it
-// a log-spaced scan brackets the first crossing first.
-func (sp *sprayPaths) crossing(x float64) float64 {
-	f := func(t float64) float64 { return sp.remaining(t) - (1 - x) }
+// crossings returns, for each level x, the first time at which the
+// evaporated fraction reaches x, or +Inf. Without transient heating the
+// remaining mass falls monotonically and Brent's method on [0, longest
+// life] finds it; with it a log-spaced scan brackets the first crossing
+// first. The scan is shared by all levels: each grid point's remaining mass
+// is computed once and every level takes the first grid interval where it
+// crosses, the bracket a scan per level would find.
+func (sp *sprayPaths) crossings(xs ...float64) []float64 {
+	out := make([]float64, len(xs))
 	tMax := 0.0
 	for i, l := range sp.life {
 		if sp.w[i] > 0 && !math.IsInf(l, 1) {
@@ -362,33 +366,56 @@ func (sp *sprayPaths) crossing(x float64) float64 {
 		}
 	}
 	if tMax == 0 {
-		return math.Inf(1)
+		for k := range out {
+			out[k] = math.Inf(1)
+		}
+		return out
 	}
-	fEnd := f(tMax)
-	if fEnd > 0 {
-		return math.Inf(1)
+	remEnd, rem0 := sp.remaining(tMax), sp.remaining(0)
+	type bracket struct{ lo, hi, flo, fhi float64 }
+	br := make([]bracket, len(xs))
+	open := 0 // levels still looking for their first crossing in the scan
+	for k, x := range xs {
+		br[k] = bracket{0, tMax, rem0 - (1 - x), remEnd - (1 - x)}
+		if br[k].fhi > 0 {
+			out[k] = math.Inf(1)
+			continue
+		}
+		open++
 	}
-	lo, hi, flo := 0.0, tMax, f(0)
-	if sp.tr != nil {
-		// Scan for the first sign change.
+	if sp.tr != nil && open > 0 {
 		const n = 400
 		t0 := math.Min(sp.shortestLife, tMax) * 1e-3
-		prev, fprev := 0.0, flo
-		for k := 0; k <= n; k++ {
-			t := t0 * math.Pow(tMax/t0, float64(k)/n)
-			ft := f(t)
-			if ft <= 0 {
-				lo, hi, flo, fEnd = prev, t, fprev, ft
-				break
+		found := make([]bool, len(xs))
+		prev, remPrev := 0.0, rem0
+		for j := 0; j <= n && open > 0; j++ {
+			t := t0 * math.Pow(tMax/t0, float64(j)/n)
+			rem := sp.remaining(t)
+			for k, x := range xs {
+				if math.IsInf(out[k], 1) || found[k] {
+					continue
+				}
+				if ft := rem - (1 - x); ft <= 0 {
+					br[k] = bracket{prev, t, remPrev - (1 - x), ft}
+					found[k] = true
+					open--
+				}
 			}
-			prev, fprev = t, ft
+			prev, remPrev = t, rem
 		}
 	}
-	t, err := brent(f, lo, hi, flo, fEnd, 1e-12*tMax)
-	if err != nil {
-		return math.Inf(1)
+	for k, x := range xs {
+		if math.IsInf(out[k], 1) {
+			continue
+		}
+		f := func(t float64) float64 { return sp.remaining(t) - (1 - x) }
+		t, err := brent(f, br[k].lo, br[k].hi, br[k].flo, br[k].fhi, 1e-12*tMax)
+		if err != nil {
+			t = math.Inf(1)
+		}
+		out[k] = t
 	}
-	return t
+	return out
 }
 
 // sweep fills the spray statistics on the increasing time grid ts.
