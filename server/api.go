@@ -106,12 +106,7 @@ func (s *Server) handleAPICaseList(w http.ResponseWriter, r *http.Request) {
 
 // handleAPICaseGet serves GET /api/cases/{id}.
 func (s *Server) handleAPICaseGet(w http.ResponseWriter, r *http.Request) {
-	id, err := caseID(r)
-	if err != nil {
-		s.apiError(w, r, err)
-		return
-	}
-	rec, err := s.Store.GetCase(r.Context(), id)
+	rec, err := s.storedCase(r)
 	if err != nil {
 		s.apiError(w, r, err)
 		return
@@ -122,12 +117,7 @@ func (s *Server) handleAPICaseGet(w http.ResponseWriter, r *http.Request) {
 // handleAPICaseFile serves GET /api/cases/{id}/file: the case file alone,
 // as a download.
 func (s *Server) handleAPICaseFile(w http.ResponseWriter, r *http.Request) {
-	id, err := caseID(r)
-	if err != nil {
-		s.apiError(w, r, err)
-		return
-	}
-	rec, err := s.Store.GetCase(r.Context(), id)
+	rec, err := s.storedCase(r)
 	if err != nil {
 		s.apiError(w, r, err)
 		return

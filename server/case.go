@@ -83,14 +83,19 @@ func caseID(r *http.Request) (int64, error) {
 	return id, nil
 }
 
-// handleCaseShow serves GET /cases/{id}.
-func (s *Server) handleCaseShow(w http.ResponseWriter, r *http.Request) {
+// storedCase reads the {id} of the route and loads that case: not found for
+// a malformed id or a missing case.
+func (s *Server) storedCase(r *http.Request) (store.CaseRecord, error) {
 	id, err := caseID(r)
 	if err != nil {
-		s.error(w, r, err)
-		return
+		return store.CaseRecord{}, err
 	}
-	rec, err := s.Store.GetCase(r.Context(), id)
+	return s.Store.GetCase(r.Context(), id)
+}
+
+// handleCaseShow serves GET /cases/{id}.
+func (s *Server) handleCaseShow(w http.ResponseWriter, r *http.Request) {
+	rec, err := s.storedCase(r)
 	if err != nil {
 		s.error(w, r, err)
 		return
@@ -339,16 +344,12 @@ func (s *Server) handleCaseCreate(w http.ResponseWriter, r *http.Request) {
 
 // handleCaseEdit serves GET /cases/{id}/edit.
 func (s *Server) handleCaseEdit(w http.ResponseWriter, r *http.Request) {
-	id, err := caseID(r)
+	rec, err := s.storedCase(r)
 	if err != nil {
 		s.error(w, r, err)
 		return
 	}
-	rec, err := s.Store.GetCase(r.Context(), id)
-	if err != nil {
-		s.error(w, r, err)
-		return
-	}
+	id := rec.ID
 	vals, us := fillForm(rec.Case, display(r))
 	f := s.formView(r, "Edit "+rec.Case.Name, fmt.Sprintf("/cases/%d", id), id, rec.Revision, vals, us, nil, "")
 	s.render(w, r, http.StatusOK, f.Chrome, views.CaseFormPage(f))
@@ -398,16 +399,12 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 
 // handleCaseDuplicate serves POST /cases/{id}/duplicate.
 func (s *Server) handleCaseDuplicate(w http.ResponseWriter, r *http.Request) {
-	id, err := caseID(r)
+	src, err := s.storedCase(r)
 	if err != nil {
 		s.error(w, r, err)
 		return
 	}
-	src, err := s.Store.GetCase(r.Context(), id)
-	if err != nil {
-		s.error(w, r, err)
-		return
-	}
+	id := src.ID
 	rec, err := s.Store.DuplicateCase(r.Context(), id, "Copy of "+src.Case.Name, s.author(r))
 	if err != nil {
 		s.error(w, r, err)

@@ -46,15 +46,6 @@ func (s *Server) reportView(r *http.Request, rec store.CaseRecord, d views.Displ
 	return v
 }
 
-// storedCase reads the {id} of the route and loads that case.
-func (s *Server) storedCase(r *http.Request) (store.CaseRecord, error) {
-	id, err := caseID(r)
-	if err != nil {
-		return store.CaseRecord{}, err
-	}
-	return s.Store.GetCase(r.Context(), id)
-}
-
 // handleCaseReport serves GET /cases/{id}/report.
 func (s *Server) handleCaseReport(w http.ResponseWriter, r *http.Request) {
 	rec, err := s.storedCase(r)

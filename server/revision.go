@@ -23,16 +23,12 @@ func revisionRow(rv store.Revision, sum string) views.RevisionRow {
 
 // handleRevisions serves GET /cases/{id}/revisions.
 func (s *Server) handleRevisions(w http.ResponseWriter, r *http.Request) {
-	id, err := caseID(r)
+	rec, err := s.storedCase(r)
 	if err != nil {
 		s.error(w, r, err)
 		return
 	}
-	rec, err := s.Store.GetCase(r.Context(), id)
-	if err != nil {
-		s.error(w, r, err)
-		return
-	}
+	id := rec.ID
 	revs, err := s.Store.Revisions(r.Context(), id)
 	if err != nil {
 		s.error(w, r, err)
