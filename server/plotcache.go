@@ -3,6 +3,7 @@ package server
 import (
 	"container/list"
 	"net/http"
+	"strings"
 	"sync"
 
 	"fogbench/calc"
@@ -33,7 +34,11 @@ type caseResults struct {
 	err       string
 	plots     []views.Plot
 	superheat *views.Plot
-	size      int // approximate bytes held
+	// panel is views.ResultsPanel drawn for this revision and unit system:
+	// the bin table, figures and plots are most of a cached page's drawing
+	// time (docs/performance.md), and depend on nothing else.
+	panel string
+	size  int // approximate bytes held
 }
 
 // resultCache is a bounded least-recently-used cache of evaluated cases and
@@ -110,10 +115,19 @@ func (s *Server) fillStoredResults(r *http.Request, v *views.CaseView) {
 	k := resultKey{id: v.ID, revision: v.Revision, system: v.Display.System}
 	if cr, ok := s.results.get(k); ok {
 		v.Result, v.Error, v.Plots, v.SuperheatPlot = cr.result, cr.err, cr.plots, cr.superheat
+		v.ResultsHTML = cr.panel
 		return
 	}
 	s.fillResults(r, v)
 	cr := caseResults{result: v.Result, err: v.Error, plots: v.Plots, superheat: v.SuperheatPlot, size: 1024}
+	var panel strings.Builder
+	if err := views.ResultsPanel(*v).Render(r.Context(), &panel); err == nil {
+		// A failed drawing is not cached; the page then draws the panel
+		// itself and reports the failure as usual.
+		cr.panel = panel.String()
+		v.ResultsHTML = cr.panel
+		cr.size += len(cr.panel)
+	}
 	if res := v.Result; res != nil {
 		cr.size += 160 * len(res.Bins)
 		if res.History != nil {

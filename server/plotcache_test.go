@@ -3,12 +3,19 @@ package server
 import (
 	"context"
 	"fmt"
+	"io"
+	"log/slog"
+	"net/http"
+	"net/http/httptest"
+	"path/filepath"
+	"strings"
 	"testing"
 
 	"github.com/PuerkitoBio/goquery"
 
 	"fogbench/calc"
 	"fogbench/calc/units"
+	"fogbench/store"
 )
 
 func TestResultCacheEvictsLeastRecentlyUsed(t *testing.T) {
@@ -83,5 +90,52 @@ func TestCasePageNotStaleAfterSave(t *testing.T) {
 	}
 	if after := page(); after == first {
 		t.Error("the page after a save still shows the old revision's results")
+	}
+}
+
+// TestCachedPanelMatchesDrawn checks that the case page served with the
+// cached results panel is byte for byte the page drawn from scratch, in
+// both unit systems, on the first (drawn and cached) and a later request.
+func TestCachedPanelMatchesDrawn(t *testing.T) {
+	ctx := context.Background()
+	st, err := store.Open(ctx, filepath.Join(t.TempDir(), "lib.db"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer st.Close()
+	temp := 293.15
+	rec, err := st.CreateCase(ctx, calc.Case{Format: calc.CaseFormat, Name: "panel check", Fluid: "water", LiquidTemperatureK: &temp,
+		Gas:          calc.Gas{PressurePa: 101325, TemperatureK: 300},
+		Distribution: calc.Distribution{Model: "rosin-rammler", XM: 50e-6, Q: 2.5, Bins: 30, DMinM: 1e-6, DMaxM: 300e-6}}, "test")
+	if err != nil {
+		t.Fatal(err)
+	}
+	logger := slog.New(slog.NewTextHandler(io.Discard, nil))
+	cached := New(st, logger)
+	drawn := New(st, logger)
+	drawn.results = nil
+	get := func(s *Server, system units.System) string {
+		req := httptest.NewRequest(http.MethodGet, fmt.Sprintf("/cases/%d", rec.ID), nil)
+		req.AddCookie(&http.Cookie{Name: "units", Value: string(system)})
+		w := httptest.NewRecorder()
+		s.Handler().ServeHTTP(w, req)
+		if w.Code != http.StatusOK {
+			t.Fatalf("status %d", w.Code)
+		}
+		return w.Body.String()
+	}
+	for _, system := range []units.System{units.SI, units.US} {
+		want := get(drawn, system)
+		if !strings.Contains(want, `data-testid="bin-table"`) {
+			t.Fatal("the drawn page has no bin table")
+		}
+		for i := range 2 {
+			if got := get(cached, system); got != want {
+				t.Errorf("%s, request %d: cached page differs from the drawn one (%d vs %d bytes)", system, i+1, len(got), len(want))
+			}
+		}
+	}
+	if n := cached.results.len(); n != 2 {
+		t.Errorf("cache holds %d entries, want 2 (one per unit system)", n)
 	}
 }

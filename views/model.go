@@ -133,6 +133,10 @@ type CaseView struct {
 
 	// SuperheatPlot is the p–T diagram of a superheated case, else nil.
 	SuperheatPlot *Plot
+	// ResultsHTML, when set, is ResultsPanel of this view drawn before
+	// (the server caches it per revision and unit system); CasePage writes
+	// it instead of drawing the panel again.
+	ResultsHTML string
 }
 
 // UpdatedText shows the save time.
@@ -207,7 +211,13 @@ func (v CaseView) CurvatureFigures() []Figure {
 // BinRow is one formatted line of the per-bin table.
 type BinRow struct {
 	Range, D, NumberPct, VolumePct, Laplace, VaporPressure, Kelvin, Enhancement, Lifetime, Ts, Kn, Regime string
+	// Grows marks a class above the Kelvin critical size in supersaturated
+	// surroundings: its drops grow by condensation instead of evaporating.
+	Grows bool
 }
+
+// GrowsLifetime is the lifetime cell of a class that grows.
+const GrowsLifetime = "grows (above r*)"
 
 // BinRows formats the per-bin results in display units.
 func (v CaseView) BinRows() []BinRow {
@@ -217,7 +227,11 @@ func (v CaseView) BinRows() []BinRow {
 	rows := make([]BinRow, len(v.Result.Bins))
 	for i, b := range v.Result.Bins {
 		life := "never"
-		if b.LifetimeS != nil {
+		grows := b.Grows != nil && *b.Grows
+		switch {
+		case grows:
+			life = GrowsLifetime
+		case b.LifetimeS != nil:
 			life = v.Display.Value(units.Time, *b.LifetimeS, 3)
 		}
 		rows[i] = BinRow{
@@ -233,9 +247,26 @@ func (v CaseView) BinRows() []BinRow {
 			Ts:            v.Display.Value(units.Temperature, b.SurfaceTemperatureK, 4),
 			Kn:            Num(b.Knudsen, 3),
 			Regime:        b.Regime,
+			Grows:         grows,
 		}
 	}
 	return rows
+}
+
+// GrowthNote explains, in supersaturated surroundings, which classes grow
+// rather than evaporate; it is empty otherwise.
+func (v CaseView) GrowthNote() string {
+	if v.Result == nil || v.Result.Curvature.KelvinCriticalRadiusM == nil {
+		return ""
+	}
+	n := 0
+	for _, b := range v.Result.Bins {
+		if b.Grows != nil && *b.Grows {
+			n++
+		}
+	}
+	return fmt.Sprintf("The surroundings are supersaturated: drops larger than the Kelvin critical diameter 2r* = %s µm grow by condensation instead of evaporating (%d of %d classes, marked “%s”). Smaller drops still evaporate.",
+		Micro(2**v.Result.Curvature.KelvinCriticalRadiusM), n, len(v.Result.Bins), GrowsLifetime)
 }
 
 // Cautions are the safety notes the page shows for this case.
