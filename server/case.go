@@ -143,8 +143,12 @@ func (s *Server) plots(res *calc.Result) []views.Plot {
 	hc, hok := historyChart(res)
 	sc, sok := sizeHistoryChart(res)
 	dc, dok := distanceChart(res)
+	curvCaption := "Raise of the vapor pressure by the Kelvin equation and of the evaporation rate, each as ratio − 1, per size class; dashed lines mark where the rate is raised by 1 % and 10 %."
+	if res.Curvature.KelvinCriticalRadiusM != nil {
+		curvCaption = "Raise of the vapor pressure by the Kelvin equation and of the evaporation rate, each as ratio − 1, per size class; dashed lines mark where the rate is raised by 1 % and 10 % and the Kelvin critical diameter 2r*, above which drops grow in these supersaturated surroundings."
+	}
 	specs := []spec{
-		{"curvature", "Raise of the vapor pressure by the Kelvin equation and of the evaporation rate, each as ratio − 1, per size class; dashed lines mark where the rate is raised by 1 % and 10 %.", curvatureChart(res), true},
+		{"curvature", curvCaption, curvatureChart(res), true},
 		{"history", "Share of the liquid mass evaporated against time; dashed lines mark t50, t90 and t99.", hc, hok},
 		{"sizes", "Sauter mean and volume median diameter of the drops still present against time.", sc, sok},
 		{"distance", "Share of the liquid mass evaporated against distance at the spray velocity.", dc, dok},

@@ -292,6 +292,12 @@ func curvatureChart(r *calc.Result) chart {
 		c.Marks = append(c.Marks, *p*1e6)
 		c.MarkNames = append(c.MarkNames, "+10 % rate")
 	}
+	// In supersaturated surroundings drops above 2r* grow instead of
+	// evaporating; the mark shows where that starts.
+	if r := r.Curvature.KelvinCriticalRadiusM; r != nil {
+		c.Marks = append(c.Marks, 2**r*1e6)
+		c.MarkNames = append(c.MarkNames, "Kelvin critical 2r*")
+	}
 	return c
 }
 

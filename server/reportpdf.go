@@ -593,8 +593,18 @@ func (p *pdfReport) binTable() {
 		p.tableRow(widths, heads, headStyle, &hd, true, nil)
 	}
 	hh, _ := p.rowHeight(widths, heads, headStyle, 0.8)
-	p.need(14 + hh + 3*4) // heading and head never sit alone at a page foot
+	note := v.GrowthNote()
+	nh := 0.0
+	if note != "" {
+		p.font("", 8)
+		nh = float64(len(p.lines(note, p.width)))*8*0.45 + 1.5
+	}
+	p.need(14 + nh + hh + 3*4) // heading, note and head never sit alone at a page foot
 	p.heading(fmt.Sprintf("Per size class (%d classes)", len(v.Result.Bins)), "")
+	if note != "" {
+		p.paragraph(note, "", 8, colInk)
+		p.f.Ln(1.5)
+	}
 	head()
 	for i, b := range v.BinRows() {
 		var bg *[3]int
@@ -602,7 +612,19 @@ func (p *pdfReport) binTable() {
 			st := colStripe
 			bg = &st
 		}
-		p.tableRow(widths, b.Cells(), numStyle, bg, true, head)
+		cells := b.Cells()
+		if b.Grows {
+			st := colWarnBg
+			bg = &st
+			// Numeric cells never wrap: break the growth mark by hand so
+			// it stays inside the narrow lifetime column.
+			for j, c := range cells {
+				if c == views.GrowsLifetime {
+					cells[j] = strings.Replace(c, " (", "\n(", 1)
+				}
+			}
+		}
+		p.tableRow(widths, cells, numStyle, bg, true, head)
 	}
 }
 
