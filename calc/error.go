@@ -16,6 +16,9 @@ const (
 	NotFound Code = "notfound" // the thing asked for does not exist
 	Conflict Code = "conflict" // the thing changed since the user last saw it
 	Internal Code = "internal" // a fault of ours; the message is generic
+	// Canceled: the caller stopped the work (a deadline passed or the
+	// client left) before it finished; the message says which.
+	Canceled Code = "canceled"
 )
 
 // Error is an application error with a code and a message fit for the user.

@@ -1,6 +1,7 @@
 package calc
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math"
@@ -450,7 +451,7 @@ func (s *setup) conditions(curvature bool) *evap.Conditions {
 // evaluate computes a case: classes, per-class curvature and evaporation,
 // the curvature summary, properties used and the spray history. Evaluate
 // (finite.go) wraps it with the guard against non-finite numbers.
-func evaluate(c Case) (*Result, error) {
+func evaluate(ctx context.Context, c Case) (*Result, error) {
 	s, err := prepare(c)
 	if err != nil {
 		return nil, err
@@ -480,6 +481,9 @@ func evaluate(c Case) (*Result, error) {
 	n := b.Len()
 	res.Bins = make([]BinResult, n)
 	for i := range n {
+		if err := ctx.Err(); err != nil {
+			return nil, canceled(err)
+		}
 		d := b.Diameter(i)
 		var st evap.DropState
 		var err error
@@ -531,14 +535,26 @@ func evaluate(c Case) (*Result, error) {
 			res.Summary.DropsPerSecond = &nd
 		}
 	}
-	if err := s.history(spray, d, res); err != nil {
+	if err := s.history(ctx, spray, d, res); err != nil {
 		return nil, err
 	}
 	return res, nil
 }
 
+// canceled is the error of an evaluation stopped by its context.
+func canceled(err error) error {
+	msg := "The calculation was cancelled before it finished."
+	if errors.Is(err, context.DeadlineExceeded) {
+		msg = "The calculation was stopped: it ran past its time limit. Fewer size classes make it faster."
+	}
+	return &Error{Code: Canceled, Message: msg, Err: err}
+}
+
 // evaluationError explains a failure of the evaporation model.
 func evaluationError(err error, d float64) error {
+	if errors.Is(err, context.Canceled) || errors.Is(err, context.DeadlineExceeded) {
+		return canceled(err)
+	}
 	if errors.Is(err, evap.ErrBoiling) {
 		return &Error{Code: Invalid, Message: fmt.Sprintf("The liquid boils at these conditions (drop %.3g µm): its vapor pressure reaches the gas pressure, so the quasi-steady evaporation model does not apply. Lower the liquid temperature or raise the pressure.", d*1e6), Err: err}
 	}
@@ -608,7 +624,7 @@ func (s *setup) historyOptions(fixedT float64) evap.HistoryOptions {
 }
 
 // history follows every class along its own d(t) and sums the spray.
-func (s *setup) history(spray *evap.Spray, d []float64, res *Result) error {
+func (s *setup) history(ctx context.Context, spray *evap.Spray, d []float64, res *Result) error {
 	opts := evap.HistoryOptions{MaxTime: s.c.Evaporation.MaxTimeS}
 	if opts.MaxTime == 0 {
 		// Part of the spray never evaporates (saturated or supersaturated
@@ -630,7 +646,7 @@ func (s *setup) history(spray *evap.Spray, d []float64, res *Result) error {
 			res.Warnings = append(res.Warnings, fmt.Sprintf("Part of the spray never evaporates in these surroundings; the history stops at %.3g s.", opts.MaxTime))
 		}
 	}
-	h, err := spray.History(opts.MaxTime)
+	h, err := spray.HistoryContext(ctx, opts.MaxTime)
 	if err != nil {
 		return evaluationError(err, d[len(d)-1])
 	}

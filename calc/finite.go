@@ -1,6 +1,7 @@
 package calc
 
 import (
+	"context"
 	"fmt"
 
 	"fogbench/calc/atomize"
@@ -159,8 +160,18 @@ func firstNonFinite(prefix string, names []string, v []float64) string {
 // the curvature summary, properties used and the spray history. A result
 // holding NaN or ±Inf anywhere is a fault of ours: it is returned as an
 // internal error naming the field, never as numbers a user would read.
+// It is EvaluateContext with a context that is never done.
 func Evaluate(c Case) (*Result, error) {
-	res, err := evaluate(c)
+	return EvaluateContext(context.Background(), c)
+}
+
+// EvaluateContext is Evaluate that stops when ctx is done: it looks at ctx
+// between size classes and between the time steps (and, with transient
+// heating, the classes) of the spray history, and then returns an *Error
+// with code Canceled whose message says whether the time limit passed or
+// the caller cancelled. Each look is a cheap ctx.Err().
+func EvaluateContext(ctx context.Context, c Case) (*Result, error) {
+	res, err := evaluate(ctx, c)
 	if err != nil {
 		return nil, err
 	}

@@ -1,6 +1,7 @@
 package evap
 
 import (
+	"context"
 	"fmt"
 	"math"
 
@@ -166,12 +167,21 @@ func (s *Spray) Lifetimes() []float64 {
 // History follows the spray to the horizon maxTime (s; zero means the time
 // at which 99 % of the mass has evaporated); see Conditions.History.
 func (s *Spray) History(maxTime float64) (History, error) {
+	return s.HistoryContext(context.Background(), maxTime)
+}
+
+// HistoryContext is History that stops when ctx is done: it looks at
+// ctx.Err() before each bin's transient path and each time step of the
+// sweep, and returns that error (wrapped) with no history.
+func (s *Spray) HistoryContext(ctx context.Context, maxTime float64) (History, error) {
 	var h History
 	if err := valid.NonNegative("history.max_time_s", maxTime); err != nil {
 		return h, err
 	}
 	sp, opts, steps := s.sp, s.opts, s.steps
 	sp.restore(s.steady)
+	sp.ctx = ctx
+	defer func() { sp.ctx = nil }()
 	if opts.Transient {
 		if err := sp.addTransient(opts.InjectionTemperature, maxTime); err != nil {
 			return h, err
@@ -216,7 +226,9 @@ func (s *Spray) History(maxTime float64) (History, error) {
 	h.EvaporatedMassFraction = make([]float64, steps+1)
 	h.D32 = make([]float64, steps+1)
 	h.Dv50 = make([]float64, steps+1)
-	sp.sweep(h.T, h.EvaporatedMassFraction, h.D32, h.Dv50)
+	if err := sp.sweep(h.T, h.EvaporatedMassFraction, h.D32, h.Dv50); err != nil {
+		return History{}, err
+	}
 	return h, nil
 }
 
@@ -268,6 +280,20 @@ type sprayPaths struct {
 	shortestLife float64
 	cursor       []int
 	dNow         []float64
+	// ctx stops a history early (Spray.HistoryContext); nil never stops.
+	ctx context.Context
+}
+
+// stopped returns the context's error, wrapped, once the history's context
+// is done; a nil context never stops.
+func (sp *sprayPaths) stopped() error {
+	if sp.ctx == nil {
+		return nil
+	}
+	if err := sp.ctx.Err(); err != nil {
+		return fmt.Errorf("evap: history stopped: %w", err)
+	}
+	return nil
 }
 
 func (c *Conditions) newSprayPaths(d0, w []float64, fixedTs, tb, topFactor float64) (*sprayPaths, error) {
@@ -418,18 +444,21 @@ func (sp *sprayPaths) crossings(xs ...float64) []float64 {
 	return out
 }
 
-// sweep fills the spray statistics on the increasing time grid ts.
-func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) {
+// sweep fills the spray statistics on the increasing time grid ts; it
+// returns early with sp.stopped's error when the context is done.
+func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) error {
 	n := len(sp.d0)
 	vol := make([]float64, n)
 	for i := range sp.cursor {
 		sp.cursor[i] = -1
 	}
 	if sp.tr == nil && sp.table != nil {
-		sp.sweepSteady(ts, evap, d32, dv50, vol)
-		return
+		return sp.sweepSteady(ts, evap, d32, dv50, vol)
 	}
 	for k, t := range ts {
+		if err := sp.stopped(); err != nil {
+			return err
+		}
 		rem, s3, s2, ev := 0.0, 0.0, 0.0, 0.0
 		for i := 0; i < n; i++ {
 			d, f := sp.state(i, t, &sp.cursor[i])
@@ -451,19 +480,23 @@ func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) {
 		}
 		dv50[k] = volumeMedian(sp.dNow, vol, rem)
 	}
+	return nil
 }
 
 // sweepSteady is sweep without transient heating: every bin that
 // evaporates follows the table from d0, and since G grows with d the bins
 // whose lifetime has passed form a prefix that stays gone. It computes what
 // state does for each bin, with the table lookup inlined.
-func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) {
+func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) error {
 	n := len(sp.d0)
 	tb := sp.table
 	v0, last := tb.v[0], len(tb.v)-2
 	gone := 0 // bins [0, gone) have evaporated
 	evGone := 0.0
 	for k, t := range ts {
+		if err := sp.stopped(); err != nil {
+			return err
+		}
 		for gone < n && sp.life[gone] <= t {
 			vol[gone], sp.dNow[gone] = 0, 0
 			evGone += sp.w[gone]
@@ -519,6 +552,7 @@ func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) {
 		}
 		dv50[k] = volumeMedian(sp.dNow, vol, rem)
 	}
+	return nil
 }
 
 // volumeMedian returns the diameter below which half of the volume vol

@@ -82,6 +82,9 @@ func (sp *sprayPaths) addTransient(tInj, maxTime float64) error {
 		uTop = sp.table.u[len(sp.table.u)-1]
 	}
 	for i, d0 := range sp.d0 {
+		if err := sp.stopped(); err != nil {
+			return err
+		}
 		p := &transientPath{c: c, m0: rhoInj * math.Pi * d0 * d0 * d0 / 6}
 		var last dropEval
 		var evalErr error
