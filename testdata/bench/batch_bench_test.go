@@ -1,14 +1,15 @@
 package main
 
 import (
-	"encoding/json"
-	"io"
 	"testing"
 
 	"fogbench/calc"
 )
 
-var sinkResults []*calc.Result
+var (
+	sinkResults []*calc.Result
+	sinkBytes   int
+)
 
 // BenchmarkBatch is the fogbench side of the batch without process start:
 // evaluate 100 cases of the seeded batch and encode them as `fogbench eval`
@@ -27,10 +28,11 @@ func BenchmarkBatch(b *testing.B) {
 			}
 			res[i] = r
 		}
-		enc := json.NewEncoder(io.Discard) // compact, as eval writes an array
-		if err := enc.Encode(res); err != nil {
+		out, err := calc.AppendResultsJSON(nil, res) // compact, as eval writes an array
+		if err != nil {
 			b.Fatal(err)
 		}
+		sinkBytes = len(out)
 		sinkResults = res
 	}
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(len(cases))/1e3, "µs/case")
