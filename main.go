@@ -252,15 +252,22 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "fogbench eval: %s: %v\n", name, err)
 		return 2
 	}
-	results, i, err := evaluateAll(cases, runtime.GOMAXPROCS(0))
+	// Ctrl-C stops the evaluation between classes and time steps (exit
+	// 130); once stop has run, a second one ends the process as usual.
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
+	defer stop()
+	results, i, err := evaluateAllContext(ctx, cases, runtime.GOMAXPROCS(0))
 	if err != nil {
 		where := name
 		if len(cases) > 1 {
 			where = fmt.Sprintf("%s: case %d", name, i+1)
 		}
 		fmt.Fprintf(stderr, "fogbench eval: %s: %v\n", where, oneLine(err))
-		if calc.ErrorCode(err) == calc.Internal {
+		switch calc.ErrorCode(err) {
+		case calc.Internal:
 			return 1
+		case calc.Canceled:
+			return 130
 		}
 		return 2
 	}
@@ -295,6 +302,13 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 // index and error, as a one-by-one loop would: cases after a failure are
 // skipped, cases before it are always evaluated.
 func evaluateAll(cases []calc.Case, workers int) ([]*calc.Result, int, error) {
+	return evaluateAllContext(context.Background(), cases, workers)
+}
+
+// evaluateAllContext is evaluateAll that stops when ctx is done: the case
+// being evaluated returns calc's Canceled error and is reported as the
+// failing one.
+func evaluateAllContext(ctx context.Context, cases []calc.Case, workers int) ([]*calc.Result, int, error) {
 	n := len(cases)
 	results := make([]*calc.Result, n)
 	errs := make([]error, n)
@@ -308,7 +322,7 @@ func evaluateAll(cases []calc.Case, workers int) ([]*calc.Result, int, error) {
 				if i >= int64(n) || i > firstBad.Load() {
 					return
 				}
-				res, err := calc.Evaluate(cases[i])
+				res, err := calc.EvaluateContext(ctx, cases[i])
 				if err != nil {
 					errs[i] = err
 					for bad := firstBad.Load(); i < bad && !firstBad.CompareAndSwap(bad, i); bad = firstBad.Load() {

@@ -119,9 +119,10 @@ func (s *Server) caseView(r *http.Request, rec store.CaseRecord) views.CaseView 
 }
 
 // fillResults evaluates v.Case and draws its plots; a case that cannot be
-// computed gets the reason instead.
+// computed gets the reason instead. The evaluation stops with the request
+// (time limit or client gone).
 func (s *Server) fillResults(r *http.Request, v *views.CaseView) {
-	res, err := calc.Evaluate(v.Case)
+	res, err := calc.EvaluateContext(r.Context(), v.Case)
 	if err != nil {
 		if calc.ErrorCode(err) == calc.Internal {
 			s.Logger.Error("evaluate", "path", r.URL.Path, "err", err)

@@ -88,7 +88,7 @@ func (s *Server) CompareView(r *http.Request, recs []store.CaseRecord, baseID in
 	cases := make([]calc.Case, len(recs))
 	for i, rec := range recs {
 		cc := views.CompareCase{ID: rec.ID, Revision: rec.Revision, Name: rec.Case.Name, Case: rec.Case}
-		res, err := calc.Evaluate(rec.Case)
+		res, err := calc.EvaluateContext(r.Context(), rec.Case)
 		if err != nil {
 			if calc.ErrorCode(err) == calc.Internal {
 				s.Logger.Error("evaluate", "case", rec.ID, "err", err)

@@ -119,6 +119,10 @@ func (s *Server) fillStoredResults(r *http.Request, v *views.CaseView) {
 		return
 	}
 	s.fillResults(r, v)
+	if r.Context().Err() != nil {
+		// The evaluation may have been cut short: never cache that.
+		return
+	}
 	cr := caseResults{result: v.Result, err: v.Error, plots: v.Plots, superheat: v.SuperheatPlot, size: 1024}
 	var panel strings.Builder
 	if err := views.ResultsPanel(*v).Render(r.Context(), &panel); err == nil {

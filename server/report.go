@@ -184,7 +184,7 @@ func (s *Server) evaluatedCase(r *http.Request) (store.CaseRecord, *calc.Result,
 	if err != nil {
 		return rec, nil, err
 	}
-	res, err := calc.Evaluate(rec.Case)
+	res, err := calc.EvaluateContext(r.Context(), rec.Case)
 	return rec, res, err
 }
 

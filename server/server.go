@@ -4,6 +4,7 @@ package server
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
 	"io/fs"
 	"log/slog"
@@ -164,7 +165,10 @@ func (s *Server) render(w http.ResponseWriter, r *http.Request, status int, chro
 	chrome.TokenMode = s.Token != ""
 	buf := pageBuffer()
 	defer putPageBuffer(buf)
-	if err := views.Layout(chrome, content).Render(r.Context(), buf); err != nil {
+	// Drawing is bounded work, and a page whose evaluation was stopped by
+	// the request's time limit must still say so: templ gives up on a done
+	// context, so draw without its cancellation.
+	if err := views.Layout(chrome, content).Render(context.WithoutCancel(r.Context()), buf); err != nil {
 		s.Logger.Error("render", "path", r.URL.Path, "err", err)
 		http.Error(w, "internal error while drawing the page", http.StatusInternalServerError)
 		return
@@ -195,7 +199,7 @@ func putPageBuffer(b *bytes.Buffer) {
 // renderFragment draws a component without the layout (htmx swaps).
 func (s *Server) renderFragment(w http.ResponseWriter, r *http.Request, status int, c templ.Component) {
 	var buf bytes.Buffer
-	if err := c.Render(r.Context(), &buf); err != nil {
+	if err := c.Render(context.WithoutCancel(r.Context()), &buf); err != nil {
 		s.Logger.Error("render fragment", "path", r.URL.Path, "err", err)
 		http.Error(w, "internal error while drawing the page", http.StatusInternalServerError)
 		return
@@ -214,6 +218,10 @@ func statusOf(err error) int {
 		return http.StatusNotFound
 	case calc.Conflict:
 		return http.StatusConflict
+	case calc.Canceled:
+		// The request's time limit passed (chi's Timeout also answers
+		// 504) or the client left, when no one reads the answer.
+		return http.StatusGatewayTimeout
 	}
 	if isTooLarge(err) {
 		return http.StatusRequestEntityTooLarge
