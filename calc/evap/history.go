@@ -520,7 +520,7 @@ func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) error {
 			} else if tau > 0 {
 				v := math.Log(tau)
 				if v <= v0 {
-					d = math.Exp(tb.u[0] + (v-v0)/tb.p0)
+					d = expFast(tb.u[0] + (v-v0)/tb.p0)
 				} else {
 					j := sp.cursor[i]
 					if j < 0 || j > last || v < tb.v[j] || v > tb.v[j+1] {
@@ -533,7 +533,7 @@ func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) error {
 						}
 					}
 					sp.cursor[i] = j
-					d = math.Exp(tb.lnD(j, v))
+					d = expFast(tb.lnD(j, v))
 				}
 			}
 			r := d / sp.d0[i]

@@ -120,7 +120,8 @@ func (tb *shrinkTable) lnD(j int, v float64) float64 {
 }
 
 // diameter returns d for a remaining evaporation time tau (s); tau ≤ 0
-// means the drop is gone. *cursor is a node index hint that callers walking
+// means the drop is gone. It takes e^u by expFast (within 3 ulp of
+// math.Exp), as sweepSteady does, so both give the same diameters. *cursor is a node index hint that callers walking
 // towards smaller tau keep between calls.
 func (tb *shrinkTable) diameter(tau float64, cursor *int) float64 {
 	if !(tau > 0) {
@@ -128,7 +129,7 @@ func (tb *shrinkTable) diameter(tau float64, cursor *int) float64 {
 	}
 	v := math.Log(tau)
 	if v <= tb.v[0] {
-		return math.Exp(tb.u[0] + (v-tb.v[0])/tb.p0)
+		return expFast(tb.u[0] + (v-tb.v[0])/tb.p0)
 	}
 	last := len(tb.v) - 2
 	j := *cursor
@@ -142,7 +143,7 @@ func (tb *shrinkTable) diameter(tau float64, cursor *int) float64 {
 		}
 	}
 	*cursor = j
-	return math.Exp(tb.lnD(j, v))
+	return expFast(tb.lnD(j, v))
 }
 
 func (tb *shrinkTable) search(v float64) int {
