@@ -525,6 +525,16 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 	refT := fixedT
 	if refT == 0 {
 		refT = res.Bins[n-1].SurfaceTemperatureK // the large-drop (wet-bulb) limit
+		// A solved steady temperature below the melting point means a
+		// supercooled drop: the liquid correlations end there and hold
+		// their melting-point values, which the user must know.
+		coldest := math.Inf(1)
+		for _, b := range res.Bins {
+			coldest = math.Min(coldest, b.SurfaceTemperatureK)
+		}
+		if tm := s.liquid.MeltingPoint(); coldest < tm {
+			res.Warnings = append(res.Warnings, fmt.Sprintf("The drops settle at %.2f K, %.2f K below the melting point of %s (%.2f K): they are supercooled, may freeze, and the liquid properties are held at their melting-point values there.", coldest, tm-coldest, s.liquid.Name, tm))
+		}
 	}
 	res.Curvature = s.curvature(cond, refT)
 	markGrowth(res)

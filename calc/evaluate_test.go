@@ -269,3 +269,31 @@ func TestNormalizePrunesOtherModels(t *testing.T) {
 		t.Fatalf("rosin-rammler case keeps %+v", c.Distribution)
 	}
 }
+
+// Water sprayed into dry air at 10 °C settles below 0 °C (the wet bulb is
+// about −0.8 °C by psychrolib, testdata/evap/wetbulb_psychrolib.csv): the
+// result must say the drops are supercooled.
+func TestEvaluateWarnsSupercooledDrops(t *testing.T) {
+	c := waterCase()
+	c.LiquidTemperatureK = nil
+	c.Gas.TemperatureK = 283.15
+	res, err := Evaluate(c)
+	if err != nil {
+		t.Fatal(err)
+	}
+	found := false
+	for _, w := range res.Warnings {
+		if strings.Contains(w, "supercooled") {
+			found = true
+		}
+	}
+	if !found || res.Bins[len(res.Bins)-1].SurfaceTemperatureK >= 273.15 {
+		t.Fatalf("no supercooling warning (T_s = %g K): %v", res.Bins[len(res.Bins)-1].SurfaceTemperatureK, res.Warnings)
+	}
+	warm, _ := Evaluate(waterCase())
+	for _, w := range warm.Warnings {
+		if strings.Contains(w, "supercooled") {
+			t.Fatalf("a 25 °C drop is not supercooled: %s", w)
+		}
+	}
+}
