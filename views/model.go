@@ -242,7 +242,7 @@ func (v CaseView) BinRows() []BinRow {
 			Laplace:       v.Display.Value(units.Pressure, b.LaplacePa, 4),
 			VaporPressure: v.Display.Value(units.Pressure, b.VaporPressurePa, 5),
 			Kelvin:        fmt.Sprintf("%.6f", b.KelvinRatio),
-			Enhancement:   fmt.Sprintf("%.6f", b.EvaporationEnhancement),
+			Enhancement:   enhancementText(b.EvaporationEnhancement),
 			Lifetime:      life,
 			Ts:            v.Display.Value(units.Temperature, b.SurfaceTemperatureK, 4),
 			Kn:            Num(b.Knudsen, 3),
@@ -366,4 +366,14 @@ func (v LibraryView) CountText() string {
 		return "1 case"
 	}
 	return fmt.Sprintf("%d cases", v.Total)
+}
+
+// enhancementText shows the curvature enhancement; calc reports 0 where a
+// flat surface would not evaporate (saturated or supersaturated gas), so the
+// ratio is undefined there.
+func enhancementText(e float64) string {
+	if e == 0 {
+		return "undefined"
+	}
+	return fmt.Sprintf("%.6f", e)
 }
