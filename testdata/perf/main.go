@@ -23,9 +23,11 @@ import (
 	"os/exec"
 	"path/filepath"
 	"regexp"
+	"runtime"
 	"slices"
 	"strings"
 	"sync"
+	"syscall"
 	"time"
 
 	"fogbench/calc"
@@ -37,8 +39,12 @@ func main() {
 	workers := flag.Int("workers", 32, "concurrent connections")
 	duration := flag.Duration("duration", 10*time.Second, "how long to drive each kind of request (at most 60s)")
 	steady := flag.Bool("steady", false, "evaluate at the steady (wet-bulb) surface temperature instead of a fixed one")
+	clientProcs := flag.Int("client-procs", 0, "GOMAXPROCS of this load generator (0: the runtime's default)")
 	dir := flag.String("dir", filepath.Join(os.TempDir(), "fogbench-perf"), "working directory")
 	flag.Parse()
+	if *clientProcs > 0 {
+		runtime.GOMAXPROCS(*clientProcs)
+	}
 	if *duration > time.Minute {
 		*duration = time.Minute
 	}
@@ -119,14 +125,15 @@ func run(ncases, workers int, duration time.Duration, steady bool, dir string) e
 	if steady {
 		mode = "steady surface temperature"
 	}
-	drive(fmt.Sprintf("POST /api/evaluate (60 bins, %s)", mode), client, workers, duration, func() (*http.Request, error) {
+	pid := cmd.Process.Pid
+	drive(fmt.Sprintf("POST /api/evaluate (60 bins, %s)", mode), pid, client, workers, duration, func() (*http.Request, error) {
 		return http.NewRequest(http.MethodPost, base+"/api/evaluate", bytes.NewReader(body))
 	}, "target >= 500 req/s, p99 < 50 ms")
 
 	pages := ids[:min(len(ids), 8)]
 	var next int
 	var mu sync.Mutex
-	drive(fmt.Sprintf("GET /cases/{id} (%d cases in turn, plots cached)", len(pages)), client, workers, duration, func() (*http.Request, error) {
+	drive(fmt.Sprintf("GET /cases/{id} (%d cases in turn, plots cached)", len(pages)), pid, client, workers, duration, func() (*http.Request, error) {
 		mu.Lock()
 		id := pages[next%len(pages)]
 		next++
@@ -191,12 +198,17 @@ func findAddr(pipes ...io.Reader) (string, error) {
 	}
 }
 
-func drive(name string, client *http.Client, workers int, duration time.Duration, mk func() (*http.Request, error), target string) {
+// drive runs workers closed-loop clients for duration and prints
+// throughput, latency percentiles and the CPU seconds the server and this
+// load generator used meanwhile: both share the machine's cores, so the
+// generator's share is capacity the server did not have.
+func drive(name string, pid int, client *http.Client, workers int, duration time.Duration, mk func() (*http.Request, error), target string) {
 	var mu sync.Mutex
 	var lat []time.Duration
 	errs := 0
 	deadline := time.Now().Add(duration)
 	begin := time.Now()
+	srv0, own0 := procCPU(pid), selfCPU()
 	var wg sync.WaitGroup
 	for range workers {
 		wg.Add(1)
@@ -224,6 +236,7 @@ func drive(name string, client *http.Client, workers int, duration time.Duration
 	}
 	wg.Wait()
 	el := time.Since(begin)
+	srvCPU, ownCPU := procCPU(pid)-srv0, selfCPU()-own0
 	slices.Sort(lat)
 	p := func(q float64) float64 {
 		if len(lat) == 0 {
@@ -231,8 +244,37 @@ func drive(name string, client *http.Client, workers int, duration time.Duration
 		}
 		return ms(lat[min(len(lat)-1, int(q*float64(len(lat))))])
 	}
-	fmt.Printf("%s, %d connections, %.0f s: %.0f req/s, p50 %.1f ms, p99 %.1f ms, %d errors (%s)\n",
-		name, workers, el.Seconds(), float64(len(lat))/el.Seconds(), p(0.5), p(0.99), errs, target)
+	fmt.Printf("%s, %d connections, %.0f s: %.0f req/s, p50 %.1f ms, p90 %.1f ms, p99 %.1f ms, max %.1f ms, %d errors (%s)\n",
+		name, workers, el.Seconds(), float64(len(lat))/el.Seconds(), p(0.5), p(0.9), p(0.99), p(1), errs, target)
+	fmt.Printf("  CPU: server %.2f cores (%.2f ms per request), load generator %.2f cores, of %d\n",
+		srvCPU/el.Seconds(), 1e3*srvCPU/float64(max(len(lat), 1)), ownCPU/el.Seconds(), runtime.NumCPU())
+}
+
+// procCPU is the user + system CPU time of process pid in seconds, from
+// /proc/PID/stat (fields 14 and 15, in clock ticks of 1/100 s on Linux).
+func procCPU(pid int) float64 {
+	data, err := os.ReadFile(fmt.Sprintf("/proc/%d/stat", pid))
+	if err != nil {
+		return math.NaN()
+	}
+	// The command name (field 2) may hold spaces; count from after its ')'.
+	f := strings.Fields(string(data[bytes.LastIndexByte(data, ')')+1:]))
+	if len(f) < 13 {
+		return math.NaN()
+	}
+	var ut, st float64
+	fmt.Sscan(f[11], &ut)
+	fmt.Sscan(f[12], &st)
+	return (ut + st) / 100
+}
+
+// selfCPU is this process's user + system CPU time in seconds.
+func selfCPU() float64 {
+	var ru syscall.Rusage
+	if err := syscall.Getrusage(syscall.RUSAGE_SELF, &ru); err != nil {
+		return math.NaN()
+	}
+	return float64(ru.Utime.Nano()+ru.Stime.Nano()) / 1e9
 }
 
 func ms(d time.Duration) float64 { return float64(d.Microseconds()) / 1e3 }

@@ -1,0 +1,41 @@
+package server
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"io"
+	"log/slog"
+	"net/http"
+	"net/http/httptest"
+	"path/filepath"
+	"testing"
+
+	"fogbench/calc"
+	"fogbench/store"
+)
+
+// BenchmarkAPIEvaluate is one POST /api/evaluate of the 60-bin
+// fixed-temperature case testdata/perf drives, through the whole handler
+// stack (middleware, admission, decode, evaluate, encode).
+func BenchmarkAPIEvaluate(b *testing.B) {
+	st, err := store.Open(context.Background(), filepath.Join(b.TempDir(), "lib.db"))
+	if err != nil {
+		b.Fatal(err)
+	}
+	defer st.Close()
+	t, rh := 293.15, 0.3
+	body, _ := json.Marshal(calc.Case{Format: calc.CaseFormat, Name: "perf", Fluid: "water", LiquidTemperatureK: &t,
+		Gas:          calc.Gas{PressurePa: 101325, TemperatureK: 300, RelativeHumidity: &rh, RelativeVelocityMS: 2},
+		Distribution: calc.Distribution{Model: "rosin-rammler", XM: 50e-6, Q: 2.5, Bins: 60, DMinM: 1e-6, DMaxM: 300e-6}})
+	h := New(st, slog.New(slog.NewTextHandler(io.Discard, nil))).Handler()
+	b.ReportAllocs()
+	for b.Loop() {
+		w := httptest.NewRecorder()
+		h.ServeHTTP(w, httptest.NewRequest(http.MethodPost, "/api/evaluate", bytes.NewReader(body)))
+		if w.Code != http.StatusOK {
+			b.Fatalf("status %d: %s", w.Code, w.Body)
+		}
+		sinkBytes = w.Body.Len()
+	}
+}
