@@ -120,9 +120,10 @@ func (tb *shrinkTable) lnD(j int, v float64) float64 {
 }
 
 // diameter returns d for a remaining evaporation time tau (s); tau ≤ 0
-// means the drop is gone. It takes e^u by expFast (within 3 ulp of
-// math.Exp), as sweepSteady does, so both give the same diameters. *cursor is a node index hint that callers walking
-// towards smaller tau keep between calls.
+// means the drop is gone. *cursor is a node index hint that callers
+// walking towards smaller tau keep between calls. It takes e^u by expFast
+// (within 3 ulp of math.Exp), as sweepSteady does, so both give the same
+// diameters.
 func (tb *shrinkTable) diameter(tau float64, cursor *int) float64 {
 	if !(tau > 0) {
 		return 0
