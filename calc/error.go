@@ -1,6 +1,7 @@
 package calc
 
 import (
+	"context"
 	"errors"
 	"fmt"
 
@@ -55,6 +56,10 @@ func ErrorCode(err error) Code {
 		return e.Code
 	case errors.As(err, &fes), errors.As(err, &fe):
 		return Invalid
+	case errors.Is(err, context.Canceled), errors.Is(err, context.DeadlineExceeded):
+		// A store read or other step that stopped with its request (the
+		// client left, the time limit passed) is not a fault of ours.
+		return Canceled
 	}
 	return Internal
 }
@@ -66,8 +71,11 @@ func ErrorMessage(err error) string {
 	if errors.As(err, &e) && e.Code != Internal {
 		return e.Message
 	}
-	if ErrorCode(err) == Invalid {
+	switch ErrorCode(err) {
+	case Invalid:
 		return err.Error()
+	case Canceled:
+		return "The request stopped before it finished (time limit, or the page was left)."
 	}
 	return "An internal error occurred; it has been logged."
 }

@@ -203,7 +203,7 @@ func (s *Spray) HistoryContext(ctx context.Context, maxTime float64) (History, e
 		name string
 	}{{h.T50, "50"}, {h.T90, "90"}, {h.T99, "99"}} {
 		if math.IsInf(x.t, 1) {
-			h.Warnings = append(h.Warnings, "the spray never reaches "+x.name+" % evaporated; the time is reported as +Inf")
+			h.Warnings = append(h.Warnings, "the spray never reaches "+x.name+" % evaporated in these surroundings")
 		}
 	}
 	tEnd := maxTime
