@@ -3,6 +3,7 @@ package sizedist
 import (
 	"fmt"
 	"math"
+	"math/rand/v2"
 	"strings"
 	"testing"
 )
@@ -155,4 +156,46 @@ func TestDropsPerSecond(t *testing.T) {
 	}
 	_, err = DropsPerSecond(b, -1, 998)
 	wantField(t, err, "flow.mass_flow_kg_s")
+}
+
+// Summary's means come from one pass over the moments; each must equal what
+// MeanDiameter gives for its (p, q) exactly, over seeded random classes.
+func TestSummaryMeansEqualMeanDiameter(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 5))
+	for trial := 0; trial < 200; trial++ {
+		n := 2 + rng.IntN(60)
+		edges := make([]float64, n+1)
+		edges[0] = 1e-7 * (1 + rng.Float64())
+		for i := 1; i <= n; i++ {
+			edges[i] = edges[i-1] * (1.01 + 2*rng.Float64())
+		}
+		fr := make([]float64, n)
+		for i := range fr {
+			if rng.IntN(5) > 0 {
+				fr[i] = rng.Float64()
+			}
+		}
+		fr[rng.IntN(n)] += 0.1
+		sum := 0.0
+		for _, f := range fr {
+			sum += f
+		}
+		for i := range fr {
+			fr[i] /= sum
+		}
+		b, err := FromFractions(edges, fr, BasisVolume)
+		if err != nil {
+			t.Fatal(err)
+		}
+		s := b.Summary()
+		for k, dst := range s.means() {
+			want, err := b.MeanDiameter(meanOrders[k][0], meanOrders[k][1])
+			if err != nil {
+				t.Fatal(err)
+			}
+			if *dst != want {
+				t.Fatalf("trial %d D%v: Summary %v, MeanDiameter %v", trial, meanOrders[k], *dst, want)
+			}
+		}
+	}
 }
