@@ -375,16 +375,17 @@ func RangesText(c atomize.CorrelationInfo) string {
 	return strings.Join(parts, "; ")
 }
 
-// BenchUnitOptions lists the units of a kind (mass units only for flows).
-func BenchUnitOptions(kind string) []string { return units.Symbols(units.Kind(kind)) }
+// UnitOptions lists the units of a kind the bench offers (mass units only
+// for flows); with Unit it makes BenchView a UnitFields for numberField.
+func (v BenchView) UnitOptions(kind units.Kind) []string { return units.Symbols(kind) }
 
-// BenchUnit is the unit chosen for a bench field, or the display default
-// (µm for the target drop size).
-func (v BenchView) BenchUnit(name, kind string) string {
+// Unit is the unit chosen for a bench field, or the display default (µm for
+// the target drop size).
+func (v BenchView) Unit(name string, kind units.Kind) string {
 	if u := v.Units[name]; u != "" {
 		return u
 	}
-	return v.Display.Unit(units.Kind(kind))
+	return v.Display.Unit(kind)
 }
 
 // AtomizerView is the atomizer panel of a case whose drop sizes come from a

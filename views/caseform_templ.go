@@ -708,7 +708,7 @@ func CaseFormPage(f FormView) templ.Component {
 	})
 }
 
-func textField(f FormView, name, label, help string) templ.Component {
+func textField(f Fields, name, label, help string) templ.Component {
 	return templruntime.GeneratedTemplate(func(templ_7745c5c3_Input templruntime.GeneratedComponentInput) (templ_7745c5c3_Err error) {
 		templ_7745c5c3_W, ctx := templ_7745c5c3_Input.Writer, templ_7745c5c3_Input.Context
 		if templ_7745c5c3_CtxErr := ctx.Err(); templ_7745c5c3_CtxErr != nil {
@@ -884,7 +884,7 @@ func textField(f FormView, name, label, help string) templ.Component {
 	})
 }
 
-func numberField(f FormView, name, label string, kind units.Kind, help string) templ.Component {
+func numberField(f UnitFields, name, label string, kind units.Kind, help string) templ.Component {
 	return templruntime.GeneratedTemplate(func(templ_7745c5c3_Input templruntime.GeneratedComponentInput) (templ_7745c5c3_Err error) {
 		templ_7745c5c3_W, ctx := templ_7745c5c3_Input.Writer, templ_7745c5c3_Input.Context
 		if templ_7745c5c3_CtxErr := ctx.Err(); templ_7745c5c3_CtxErr != nil {
@@ -1070,7 +1070,7 @@ func numberField(f FormView, name, label string, kind units.Kind, help string) t
 	})
 }
 
-func unitSelect(f FormView, name, label string, kind units.Kind) templ.Component {
+func unitSelect(f UnitFields, name, label string, kind units.Kind) templ.Component {
 	return templruntime.GeneratedTemplate(func(templ_7745c5c3_Input templruntime.GeneratedComponentInput) (templ_7745c5c3_Err error) {
 		templ_7745c5c3_W, ctx := templ_7745c5c3_Input.Writer, templ_7745c5c3_Input.Context
 		if templ_7745c5c3_CtxErr := ctx.Err(); templ_7745c5c3_CtxErr != nil {
@@ -1167,7 +1167,7 @@ func unitSelect(f FormView, name, label string, kind units.Kind) templ.Component
 	})
 }
 
-func selectField(f FormView, name, label string, opts []Option) templ.Component {
+func selectField(f Fields, name, label string, opts []Option) templ.Component {
 	return templruntime.GeneratedTemplate(func(templ_7745c5c3_Input templruntime.GeneratedComponentInput) (templ_7745c5c3_Err error) {
 		templ_7745c5c3_W, ctx := templ_7745c5c3_Input.Writer, templ_7745c5c3_Input.Context
 		if templ_7745c5c3_CtxErr := ctx.Err(); templ_7745c5c3_CtxErr != nil {
@@ -1347,7 +1347,7 @@ func selectField(f FormView, name, label string, opts []Option) templ.Component 
 	})
 }
 
-func fieldError(f FormView, name string) templ.Component {
+func fieldError(f Fields, name string) templ.Component {
 	return templruntime.GeneratedTemplate(func(templ_7745c5c3_Input templruntime.GeneratedComponentInput) (templ_7745c5c3_Err error) {
 		templ_7745c5c3_W, ctx := templ_7745c5c3_Input.Writer, templ_7745c5c3_Input.Context
 		if templ_7745c5c3_CtxErr := ctx.Err(); templ_7745c5c3_CtxErr != nil {
