@@ -136,37 +136,24 @@ func (s *Server) fillResults(r *http.Request, v *views.CaseView) {
 }
 
 func (s *Server) plots(res *calc.Result) []views.Plot {
-	type spec struct {
-		id, caption string
-		c           chart
-		ok          bool
-	}
-	hc, hok := historyChart(res)
-	sc, sok := sizeHistoryChart(res)
-	dc, dok := distanceChart(res)
 	curvCaption := "Raise of the vapor pressure by the Kelvin equation and of the evaporation rate, each as ratio − 1, per size class; dashed lines mark where the rate is raised by 1 % and 10 %."
 	if res.Curvature.KelvinCriticalRadiusM != nil {
 		curvCaption = "Raise of the vapor pressure by the Kelvin equation and of the evaporation rate, each as ratio − 1, per size class; dashed lines mark where the rate is raised by 1 % and 10 % and the Kelvin critical diameter 2r*, above which drops grow in these supersaturated surroundings."
 	}
-	specs := []spec{
-		{"curvature", curvCaption, curvatureChart(res), true},
-		{"history", "Share of the liquid mass evaporated against time; dashed lines mark t50, t90 and t99.", hc, hok},
-		{"sizes", "Sauter mean and volume median diameter of the drops still present against time.", sc, sok},
-		{"distance", "Share of the liquid mass evaporated against distance at the spray velocity.", dc, dok},
-	}
-	var out []views.Plot
-	for _, sp := range specs {
-		if !sp.ok {
-			continue
+	specs := []plotSpec{{"curvature", curvCaption, curvatureChart(res)}}
+	for _, o := range []struct {
+		id, caption string
+		build       func(*calc.Result) (chart, bool)
+	}{
+		{"history", "Share of the liquid mass evaporated against time; dashed lines mark t50, t90 and t99.", historyChart},
+		{"sizes", "Sauter mean and volume median diameter of the drops still present against time.", sizeHistoryChart},
+		{"distance", "Share of the liquid mass evaporated against distance at the spray velocity.", distanceChart},
+	} {
+		if c, ok := o.build(res); ok {
+			specs = append(specs, plotSpec{o.id, o.caption, c})
 		}
-		svg, err := sp.c.SVG()
-		if err != nil {
-			s.Logger.Warn("plot", "id", sp.id, "err", err)
-			continue
-		}
-		out = append(out, views.Plot{ID: sp.id, Title: sp.c.Title, SVG: svg, Caption: sp.caption})
 	}
-	return out
+	return s.drawPlots(specs)
 }
 
 func flammable(id string) bool {

@@ -214,25 +214,6 @@ func (s *Server) handleFluidShow(w http.ResponseWriter, r *http.Request) {
 	s.render(w, r, http.StatusOK, v.Chrome, views.FluidPage(v))
 }
 
-// drawPlots renders charts to SVG, leaving out any that cannot be drawn.
-func (s *Server) drawPlots(specs []plotSpec) []views.Plot {
-	var out []views.Plot
-	for _, sp := range specs {
-		svg, err := sp.c.SVG()
-		if err != nil {
-			s.Logger.Warn("plot", "id", sp.id, "err", err)
-			continue
-		}
-		out = append(out, views.Plot{ID: sp.id, Title: sp.c.Title, SVG: svg, Caption: sp.caption})
-	}
-	return out
-}
-
-type plotSpec struct {
-	id, caption string
-	c           chart
-}
-
 // propertyCurve samples one property of a liquid over its published range,
 // x in the display temperature unit.
 func propertyCurve(l *fluid.Liquid, d views.Display, f func(T float64) float64) ([]float64, []float64) {

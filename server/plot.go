@@ -17,6 +17,7 @@ import (
 	"gonum.org/v1/plot/vg/vgsvg"
 
 	"fogbench/calc"
+	"fogbench/views"
 )
 
 // Plot colours of our own: deep teal, rust, olive, slate, plum, ochre.
@@ -367,6 +368,26 @@ func scaled(v []float64, k float64) []float64 {
 	out := make([]float64, len(v))
 	for i, x := range v {
 		out[i] = x * k
+	}
+	return out
+}
+
+// plotSpec is one plot of a page: its id, caption and chart.
+type plotSpec struct {
+	id, caption string
+	c           chart
+}
+
+// drawPlots renders charts to SVG, leaving out any that cannot be drawn.
+func (s *Server) drawPlots(specs []plotSpec) []views.Plot {
+	var out []views.Plot
+	for _, sp := range specs {
+		svg, err := sp.c.SVG()
+		if err != nil {
+			s.Logger.Warn("plot", "id", sp.id, "err", err)
+			continue
+		}
+		out = append(out, views.Plot{ID: sp.id, Title: sp.c.Title, SVG: svg, Caption: sp.caption})
 	}
 	return out
 }

@@ -157,21 +157,8 @@ func (s *Server) distPlots(res *calc.Result, fit *sizedist.FitResult) []views.Pl
 		fitNote = fmt.Sprintf(" Dashed: the %s model fitted to the classes (best R² of the four families, %s).",
 			views.ModelLabel(fit.Family), r2Text(fit.R2))
 	}
-	specs := []struct {
-		id, caption string
-		c           chart
-	}{
+	return s.drawPlots([]plotSpec{
 		{"dist-density", "Fraction of the drops (number) and of the liquid (volume) per unit ln d; the area under each step curve is its fraction. Grey dashes mark D32 and Dv50." + fitNote, sizeDensityChart(res, fit)},
 		{"dist-cumulative", "Share of the liquid volume in drops smaller than d; grey dashes mark Dv10, Dv50 and Dv90." + fitNote, cumulativeChart(res, fit)},
-	}
-	var out []views.Plot
-	for _, sp := range specs {
-		svg, err := sp.c.SVG()
-		if err != nil {
-			s.Logger.Warn("plot", "id", sp.id, "err", err)
-			continue
-		}
-		out = append(out, views.Plot{ID: sp.id, Title: sp.c.Title, SVG: svg, Caption: sp.caption})
-	}
-	return out
+	})
 }
