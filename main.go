@@ -411,16 +411,9 @@ func reportCmd(args []string, stderr io.Writer) int {
 	dbPath := fs.String("db", "fogbench.db", "SQLite case library")
 	out := fs.String("o", "", "PDF file to write")
 	paper := fs.String("paper", "a4", "paper size: a4 or letter")
-	var pos []string
-	for {
-		if err := fs.Parse(args); err != nil {
-			return 2
-		}
-		if fs.NArg() == 0 {
-			break
-		}
-		pos = append(pos, fs.Arg(0))
-		args = fs.Args()[1:]
+	pos, ok := parseWithPositional(fs, args)
+	if !ok {
+		return 2
 	}
 	if len(pos) != 1 || *out == "" {
 		fmt.Fprintln(stderr, "fogbench report: give one case id and -o FILE.pdf")
@@ -490,16 +483,9 @@ func restoreCmd(args []string, stdout, stderr io.Writer) int {
 	fs := flag.NewFlagSet("restore", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	dbPath := fs.String("db", "fogbench.db", "SQLite case library to replace")
-	var pos []string
-	for {
-		if err := fs.Parse(args); err != nil {
-			return 2
-		}
-		if fs.NArg() == 0 {
-			break
-		}
-		pos = append(pos, fs.Arg(0))
-		args = fs.Args()[1:]
+	pos, ok := parseWithPositional(fs, args)
+	if !ok {
+		return 2
 	}
 	if len(pos) != 1 {
 		fmt.Fprintln(stderr, "fogbench restore: give the backup file")
@@ -518,5 +504,72 @@ func restoreCmd(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stdout, "the previous library is kept as %s\n", rep.KeptAside)
 	}
 	fmt.Fprintln(stdout, "The new file was put in place by an atomic rename; fogbench cannot tell whether another program still had the old file open, so restart any server using it.")
+	return 0
+}
+
+// parseWithPositional parses flags that may stand before or after the
+// positional arguments (flag stops at the first non-flag) and returns the
+// positional ones; ok is false when a flag is malformed.
+func parseWithPositional(fs *flag.FlagSet, args []string) (pos []string, ok bool) {
+	for {
+		if err := fs.Parse(args); err != nil {
+			return nil, false
+		}
+		if fs.NArg() == 0 {
+			return pos, true
+		}
+		pos = append(pos, fs.Arg(0))
+		args = fs.Args()[1:]
+	}
+}
+
+// migrateStoreCmd copies a whole library (every revision, tag, trash state
+// and user liquid, with the same case numbers) into an empty one, for
+// moving between a SQLite file and PostgreSQL (docs/stores.md).
+func migrateStoreCmd(args []string, stdout, stderr io.Writer) int {
+	fs := flag.NewFlagSet("migrate-store", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	from := fs.String("from", "", "library to copy: a SQLite file or a postgres:// URL")
+	to := fs.String("to", "", "empty library to fill: a SQLite file (created) or a postgres:// URL (the database must exist)")
+	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	if *from == "" || *to == "" || fs.NArg() != 0 {
+		fmt.Fprintln(stderr, "fogbench migrate-store: give -from LIB and -to LIB")
+		return 2
+	}
+	if *from == *to {
+		fmt.Fprintln(stderr, "fogbench migrate-store: -from and -to name the same library")
+		return 2
+	}
+	if !store.IsPostgres(*from) {
+		if _, err := os.Stat(*from); err != nil {
+			fmt.Fprintf(stderr, "fogbench migrate-store: -from: %v\n", err)
+			return 2
+		}
+	}
+	ctx := context.Background()
+	src, err := store.Open(ctx, *from)
+	if err != nil {
+		fmt.Fprintf(stderr, "fogbench migrate-store: %v\n", err)
+		return 1
+	}
+	defer src.Close()
+	dst, err := store.Open(ctx, *to)
+	if err != nil {
+		fmt.Fprintf(stderr, "fogbench migrate-store: %v\n", err)
+		return 1
+	}
+	defer dst.Close()
+	rep, err := store.CopyLibrary(ctx, src, dst)
+	if err != nil {
+		fmt.Fprintf(stderr, "fogbench migrate-store: %v\n", err)
+		if calc.ErrorCode(err) == calc.Invalid {
+			return 2
+		}
+		return 1
+	}
+	fmt.Fprintf(stdout, "copied %d cases (%d revisions, %d tags) and %d user liquids from %s to %s; integrity check ok\n",
+		rep.Cases, rep.Revisions, rep.Tags, rep.Liquids, src.Path(), dst.Path())
 	return 0
 }
