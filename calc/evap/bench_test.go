@@ -86,6 +86,7 @@ func BenchmarkHistory(b *testing.B) {
 		{"kelvin-transition/steady-Ts", "kelvin-transition", HistoryOptions{Steps: steps}},
 		{"abramzon-sirignano/steady-Ts", "abramzon-sirignano", HistoryOptions{Steps: steps}},
 		{"flat/transient", "flat", HistoryOptions{Transient: true, InjectionTemperature: 298.15, Steps: steps}},
+		{"kelvin-transition/transient", "kelvin-transition", HistoryOptions{Transient: true, InjectionTemperature: 298.15, Steps: steps}},
 	}
 	for _, k := range cases {
 		b.Run(k.name, func(b *testing.B) {

@@ -282,6 +282,9 @@ type sprayPaths struct {
 	dNow         []float64
 	// ctx stops a history early (Spray.HistoryContext); nil never stops.
 	ctx context.Context
+	// directTransient integrates every bin's heating phase on its own even
+	// where the scaled shared path applies (tests compare the two).
+	directTransient bool
 }
 
 // stopped returns the context's error, wrapped, once the history's context
@@ -369,8 +372,14 @@ func (sp *sprayPaths) state(i int, t float64, cursor *int) (d, frac float64) {
 func (sp *sprayPaths) remaining(t float64) float64 {
 	m := 0.0
 	for i := range sp.d0 {
-		cur := -1
-		_, f := sp.state(i, t, &cur)
+		var f float64
+		if sp.tr != nil && sp.tr[i] != nil && t < sp.join[i] {
+			// state's transient branch, without the diameter.
+			f = sp.tr[i].fraction(t)
+		} else {
+			cur := -1
+			_, f = sp.state(i, t, &cur)
+		}
 		m += sp.w[i] * f
 	}
 	return m
