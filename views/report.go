@@ -313,8 +313,9 @@ type BinColumn struct {
 	Method  string // method id, "" for plain inputs
 }
 
-// BinColumns are the headings of the per-class table, in display units.
-func (v ReportView) BinColumns() []BinColumn {
+// BinColumns are the headings of the per-class table, in display units; the
+// case page, the print report and the PDF all draw the table from them.
+func (v CaseView) BinColumns() []BinColumn {
 	d := v.Display
 	return []BinColumn{
 		{"Class, µm", "sizes"},
