@@ -299,18 +299,28 @@ func (s *Server) handleAtomizers(w http.ResponseWriter, r *http.Request) {
 	s.render(w, r, http.StatusOK, c, views.AtomizerIndexPage(c, atomize.Families()))
 }
 
+// benchRequest reads the bench's family from the route and its inputs from
+// the query, or the family's defaults when the query gives none.
+func benchRequest(r *http.Request) (atomize.FamilyInfo, url.Values, error) {
+	f, err := familyInfo(chi.URLParam(r, "family"))
+	if err != nil {
+		return f, nil, err
+	}
+	q := r.URL.Query()
+	if q.Get("fluid") == "" {
+		q, _ = benchDefaults(f, display(r))
+	}
+	return f, q, nil
+}
+
 // handleAtomizerBench serves GET /atomizers/{family}.
 func (s *Server) handleAtomizerBench(w http.ResponseWriter, r *http.Request) {
-	f, err := familyInfo(chi.URLParam(r, "family"))
+	f, q, err := benchRequest(r)
 	if err != nil {
 		s.error(w, r, err)
 		return
 	}
 	d := display(r)
-	q := r.URL.Query()
-	if q.Get("fluid") == "" {
-		q, _ = benchDefaults(f, d)
-	}
 	b := s.readBench(r, f, q)
 	v := views.BenchView{
 		Chrome: views.Chrome{Title: f.Name, Nav: "atomizers", Display: d},
@@ -576,16 +586,12 @@ func (s *Server) benchSweep(b *benchState, v *views.BenchView) {
 // handleAtomizerCase serves GET /atomizers/{family}/case: the case form
 // prefilled with this nozzle as the case's drop-size source.
 func (s *Server) handleAtomizerCase(w http.ResponseWriter, r *http.Request) {
-	f, err := familyInfo(chi.URLParam(r, "family"))
+	f, q, err := benchRequest(r)
 	if err != nil {
 		s.error(w, r, err)
 		return
 	}
 	d := display(r)
-	q := r.URL.Query()
-	if q.Get("fluid") == "" {
-		q, _ = benchDefaults(f, d)
-	}
 	vals, us := fillForm(newCaseDefaults(), d)
 	vals["model"], vals["family"], vals["correlation"] = "atomizer", f.ID, q.Get("correlation")
 	vals["name"] = f.Name + " nozzle"

@@ -272,28 +272,20 @@ func (p *pdfReport) footer() {
 	p.drawText(pdfMarginX+p.width-p.textWidth(fmt.Sprintf("Page %d of %d", p.f.PageNo(), 99)), y, right)
 }
 
-func (p *pdfReport) heading(text string, refs string) {
-	p.need(22) // the heading and two rows of what follows
-	p.f.Ln(3)
-	p.font("B", 12)
-	p.color(colInk)
-	y := p.f.GetY() + 5
-	p.drawText(pdfMarginX, y, text)
-	if refs != "" {
-		w := p.textWidth(text)
-		p.font("", 7.5)
-		p.color(colMuted)
-		p.drawText(pdfMarginX+w+3, y, "methods "+refs)
-	}
-	p.f.SetY(y + 2.5)
-}
+// heading starts a section; subheading a part of one. Each stays with the
+// start of what follows and may carry method references.
+func (p *pdfReport) heading(text string, refs string) { p.title(text, refs, 22, 3, 12, 5, 2.5) }
 
-func (p *pdfReport) subheading(text, refs string) {
-	p.need(17)
-	p.f.Ln(1.5)
-	p.font("B", 10)
+func (p *pdfReport) subheading(text, refs string) { p.title(text, refs, 17, 1.5, 10, 4, 2) }
+
+// title draws a bold line of the given size after a gap, keeping room (mm)
+// for it and what follows on the page, with "methods …" in small type.
+func (p *pdfReport) title(text, refs string, room, gap, size, drop, after float64) {
+	p.need(room)
+	p.f.Ln(gap)
+	p.font("B", size)
 	p.color(colInk)
-	y := p.f.GetY() + 4
+	y := p.f.GetY() + drop
 	p.drawText(pdfMarginX, y, text)
 	if refs != "" {
 		w := p.textWidth(text)
@@ -301,7 +293,7 @@ func (p *pdfReport) subheading(text, refs string) {
 		p.color(colMuted)
 		p.drawText(pdfMarginX+w+3, y, "methods "+refs)
 	}
-	p.f.SetY(y + 2)
+	p.f.SetY(y + after)
 }
 
 // paragraph writes wrapped text, keeping it on one page when it fits one.
