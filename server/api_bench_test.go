@@ -2,28 +2,21 @@ package server
 
 import (
 	"bytes"
-	"context"
 	"encoding/json"
 	"io"
 	"log/slog"
 	"net/http"
 	"net/http/httptest"
-	"path/filepath"
 	"testing"
 
 	"fogbench/calc"
-	"fogbench/store"
 )
 
 // BenchmarkAPIEvaluate is one POST /api/evaluate of the 60-bin
 // fixed-temperature case testdata/perf drives, through the whole handler
 // stack (middleware, admission, decode, evaluate, encode).
 func BenchmarkAPIEvaluate(b *testing.B) {
-	st, err := store.Open(context.Background(), filepath.Join(b.TempDir(), "lib.db"))
-	if err != nil {
-		b.Fatal(err)
-	}
-	defer st.Close()
+	st := openTestStore(b)
 	t, rh := 293.15, 0.3
 	body, _ := json.Marshal(calc.Case{Format: calc.CaseFormat, Name: "perf", Fluid: "water", LiquidTemperatureK: &t,
 		Gas:          calc.Gas{PressurePa: 101325, TemperatureK: 300, RelativeHumidity: &rh, RelativeVelocityMS: 2},

@@ -7,12 +7,9 @@ import (
 	"net/http"
 	"net/http/httptest"
 	"net/url"
-	"path/filepath"
 	"strings"
 	"testing"
 	"time"
-
-	"fogbench/store"
 )
 
 const testToken = "correct-horse-battery-staple-42"
@@ -20,11 +17,7 @@ const testToken = "correct-horse-battery-staple-42"
 func newTokenServer(t *testing.T) *httptest.Server {
 	t.Helper()
 	ctx := context.Background()
-	st, err := store.Open(ctx, filepath.Join(t.TempDir(), "lib.db"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	t.Cleanup(func() { st.Close() })
+	st := openTestStore(t)
 	st.SeedDemo(ctx)
 	var logs strings.Builder
 	s := New(st, slog.New(slog.NewTextHandler(&logs, &slog.HandlerOptions{Level: slog.LevelDebug})))

@@ -9,7 +9,6 @@ import (
 	"mime/multipart"
 	"net/http"
 	"net/http/httptest"
-	"path/filepath"
 	"testing"
 
 	"fogbench/store"
@@ -42,11 +41,7 @@ func TestExportImportAPI(t *testing.T) {
 
 	// Another machine: an empty library.
 	ctx := context.Background()
-	dstStore, err := store.Open(ctx, filepath.Join(t.TempDir(), "other.db"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer dstStore.Close()
+	dstStore := openTestStore(t)
 	dst := newServerOver(t, dstStore)
 	post := func(body []byte, q string) (int, map[string][]map[string]any) {
 		resp, err := c.Post(dst.URL+"/api/import"+q, "application/json", bytes.NewReader(body))

@@ -7,13 +7,11 @@ import (
 	"log/slog"
 	"net/http"
 	"net/http/httptest"
-	"path/filepath"
 	"strings"
 	"testing"
 	"time"
 
 	"fogbench/calc"
-	"fogbench/store"
 )
 
 // slowCase is a transient case with n classes: each class is heated along
@@ -59,11 +57,7 @@ func TestAPIEvaluateStopsWithTheRequest(t *testing.T) {
 // the case in full.
 func TestCasePageCancelledIsNotCached(t *testing.T) {
 	ctx := context.Background()
-	st, err := store.Open(ctx, filepath.Join(t.TempDir(), "lib.db"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer st.Close()
+	st := openTestStore(t)
 	rec, err := st.CreateCase(ctx, slowCase(400), "tester")
 	if err != nil {
 		t.Fatal(err)

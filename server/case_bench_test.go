@@ -7,11 +7,9 @@ import (
 	"log/slog"
 	"net/http"
 	"net/http/httptest"
-	"path/filepath"
 	"testing"
 
 	"fogbench/calc"
-	"fogbench/store"
 )
 
 var sinkBytes int
@@ -21,11 +19,7 @@ var sinkBytes int
 // cache), "cached" serves the plots of the stored revision from the cache.
 func BenchmarkCasePage(b *testing.B) {
 	ctx := context.Background()
-	st, err := store.Open(ctx, filepath.Join(b.TempDir(), "lib.db"))
-	if err != nil {
-		b.Fatal(err)
-	}
-	defer st.Close()
+	st := openTestStore(b)
 	t := 293.15
 	rec, err := st.CreateCase(ctx, calc.Case{Format: calc.CaseFormat, Name: "page bench", Fluid: "water", LiquidTemperatureK: &t,
 		Gas:          calc.Gas{PressurePa: 101325, TemperatureK: 300},

@@ -27,7 +27,6 @@ import (
 	"fogbench/calc"
 	"fogbench/calc/sizedist"
 	"fogbench/calc/units"
-	"fogbench/store"
 	"fogbench/views"
 )
 
@@ -62,11 +61,7 @@ func newE2E(t *testing.T) *e2e {
 	}
 
 	ctx := context.Background()
-	st, err := store.Open(ctx, filepath.Join(t.TempDir(), "e2e.db"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	t.Cleanup(func() { st.Close() })
+	st := openTestStore(t)
 	if _, err := st.SeedDemo(ctx); err != nil {
 		t.Fatal(err)
 	}

@@ -9,7 +9,6 @@ import (
 	"log/slog"
 	"net/http"
 	"net/http/httptest"
-	"path/filepath"
 	"testing"
 
 	"fogbench/calc"
@@ -23,11 +22,7 @@ var benchSink int
 // every tenth tagged) in one import transaction.
 func seedLibrary(b *testing.B, n int) *store.Store {
 	b.Helper()
-	ctx := context.Background()
-	st, err := store.Open(ctx, filepath.Join(b.TempDir(), "big.db"))
-	if err != nil {
-		b.Fatal(err)
-	}
+	st := openTestStore(b)
 	demo, err := store.DemoCases()
 	if err != nil {
 		b.Fatal(err)

@@ -7,7 +7,6 @@ import (
 	"log/slog"
 	"net/http"
 	"net/http/httptest"
-	"path/filepath"
 	"strings"
 	"testing"
 
@@ -15,7 +14,6 @@ import (
 
 	"fogbench/calc"
 	"fogbench/calc/units"
-	"fogbench/store"
 )
 
 func TestResultCacheEvictsLeastRecentlyUsed(t *testing.T) {
@@ -98,11 +96,7 @@ func TestCasePageNotStaleAfterSave(t *testing.T) {
 // both unit systems, on the first (drawn and cached) and a later request.
 func TestCachedPanelMatchesDrawn(t *testing.T) {
 	ctx := context.Background()
-	st, err := store.Open(ctx, filepath.Join(t.TempDir(), "lib.db"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer st.Close()
+	st := openTestStore(t)
 	temp := 293.15
 	rec, err := st.CreateCase(ctx, calc.Case{Format: calc.CaseFormat, Name: "panel check", Fluid: "water", LiquidTemperatureK: &temp,
 		Gas:          calc.Gas{PressurePa: 101325, TemperatureK: 300},

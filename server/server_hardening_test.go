@@ -11,7 +11,6 @@ import (
 	"net"
 	"net/http"
 	"net/http/httptest"
-	"path/filepath"
 	"regexp"
 	"strings"
 	"sync"
@@ -21,8 +20,6 @@ import (
 	"github.com/PuerkitoBio/goquery"
 	"github.com/go-chi/chi/v5"
 	"github.com/go-chi/chi/v5/middleware"
-
-	"fogbench/store"
 )
 
 // logBuffer collects what the server logs, safe for the handler goroutines.
@@ -47,11 +44,7 @@ func (b *logBuffer) String() string {
 func newLoggedServer(t *testing.T) (*httptest.Server, *Server, *logBuffer) {
 	t.Helper()
 	ctx := context.Background()
-	st, err := store.Open(ctx, filepath.Join(t.TempDir(), "lib.db"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	t.Cleanup(func() { st.Close() })
+	st := openTestStore(t)
 	if _, err := st.SeedDemo(ctx); err != nil {
 		t.Fatal(err)
 	}

@@ -20,15 +20,23 @@ import (
 	"fogbench/store"
 )
 
+// openTestStore opens a fresh library file in the test's temporary folder,
+// closed when the test ends.
+func openTestStore(tb testing.TB) *store.Store {
+	tb.Helper()
+	st, err := store.Open(context.Background(), filepath.Join(tb.TempDir(), "lib.db"))
+	if err != nil {
+		tb.Fatal(err)
+	}
+	tb.Cleanup(func() { st.Close() })
+	return st
+}
+
 // newTestServer serves a fresh library seeded with the demo cases.
 func newTestServer(t *testing.T) (*httptest.Server, *store.Store) {
 	t.Helper()
 	ctx := context.Background()
-	st, err := store.Open(ctx, filepath.Join(t.TempDir(), "lib.db"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	t.Cleanup(func() { st.Close() })
+	st := openTestStore(t)
 	if _, err := st.SeedDemo(ctx); err != nil {
 		t.Fatal(err)
 	}
