@@ -249,12 +249,12 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		defer f.Close()
 		in, name = f, args[0]
 	}
-	data, err := io.ReadAll(in)
+	data, err := io.ReadAll(io.LimitReader(in, calc.MaxBatchFileBytes+1))
 	if err != nil {
 		fmt.Fprintf(stderr, "fogbench eval: read %s: %v\n", name, err)
 		return 1
 	}
-	cases, err := calc.Decode(bytes.NewReader(data))
+	cases, err := calc.DecodeBatch(bytes.NewReader(data), calc.MaxBatchFileBytes, calc.MaxBatchCases)
 	if err != nil {
 		fmt.Fprintf(stderr, "fogbench eval: %s: %v\n", name, err)
 		return 2
@@ -263,7 +263,27 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	// 130); once stop has run, a second one ends the process as usual.
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
 	defer stop()
-	results, i, err := evaluateAllContext(ctx, cases, runtime.GOMAXPROCS(0))
+	// Compact JSON: indenting doubled the bytes and took about a sixth of
+	// a batch's CPU. A single case printed to a terminal stays indented
+	// for reading. calc's encoder writes what encoding/json writes, faster;
+	// each worker encodes the results it computed, so the encoding runs on
+	// all cores too, and nothing is written unless every case succeeded.
+	array := calc.IsArray(data)
+	pretty := !array && isTerminal(stdout)
+	outs := make([][]byte, len(cases))
+	var single *calc.Result
+	i, err := runAll(len(cases), runtime.GOMAXPROCS(0), func(i int) error {
+		res, err := calc.EvaluateContext(ctx, cases[i])
+		if err != nil {
+			return err
+		}
+		if pretty {
+			single = res
+			return nil
+		}
+		outs[i], err = res.AppendJSON(nil)
+		return err
+	})
 	if err != nil {
 		where := name
 		if len(cases) > 1 {
@@ -278,23 +298,12 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		}
 		return 2
 	}
-	// Compact JSON: indenting doubled the bytes and took about a sixth of
-	// a batch's CPU. A single case printed to a terminal stays indented
-	// for reading. calc's encoder writes what encoding/json writes, faster.
-	var out []byte
-	if !calc.IsArray(data) {
-		if isTerminal(stdout) {
-			enc := json.NewEncoder(stdout)
-			enc.SetIndent("", "  ")
-			err = enc.Encode(results[0])
-		} else {
-			out, err = results[0].AppendJSON(nil)
-		}
+	if pretty {
+		enc := json.NewEncoder(stdout)
+		enc.SetIndent("", "  ")
+		err = enc.Encode(single)
 	} else {
-		out, err = calc.AppendResultsJSON(nil, results)
-	}
-	if err == nil && out != nil {
-		_, err = stdout.Write(append(out, '\n'))
+		_, err = joinJSON(outs, array).WriteTo(stdout)
 	}
 	if err != nil {
 		fmt.Fprintf(stderr, "fogbench eval: %v\n", err)
@@ -303,21 +312,49 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	return 0
 }
 
+// joinJSON returns the encoded results as one JSON value and a newline:
+// the single object, or the array of them (what calc.AppendResultsJSON
+// writes), as buffers written in one vectored write where the system has
+// one.
+func joinJSON(outs [][]byte, array bool) *net.Buffers {
+	if !array {
+		return &net.Buffers{outs[0], []byte("\n")}
+	}
+	bufs := make(net.Buffers, 0, 2*len(outs)+2)
+	bufs = append(bufs, []byte("["))
+	for i, o := range outs {
+		if i > 0 {
+			bufs = append(bufs, []byte(","))
+		}
+		bufs = append(bufs, o)
+	}
+	bufs = append(bufs, []byte("]\n"))
+	return &bufs
+}
+
 // evaluateAll evaluates the cases on up to workers goroutines (cases are
 // independent and calc.Evaluate is safe for concurrent use) and returns the
 // results in input order, or the first failing case in input order with its
 // index and error, as a one-by-one loop would: cases after a failure are
 // skipped, cases before it are always evaluated.
 func evaluateAll(cases []calc.Case, workers int) ([]*calc.Result, int, error) {
-	return evaluateAllContext(context.Background(), cases, workers)
+	results := make([]*calc.Result, len(cases))
+	i, err := runAll(len(cases), workers, func(i int) error {
+		res, err := calc.Evaluate(cases[i])
+		results[i] = res
+		return err
+	})
+	if err != nil {
+		return nil, i, err
+	}
+	return results, 0, nil
 }
 
-// evaluateAllContext is evaluateAll that stops when ctx is done: the case
-// being evaluated returns calc's Canceled error and is reported as the
-// failing one.
-func evaluateAllContext(ctx context.Context, cases []calc.Case, workers int) ([]*calc.Result, int, error) {
-	n := len(cases)
-	results := make([]*calc.Result, n)
+// runAll calls do(i) for i = 0 … n−1 on up to workers goroutines and
+// returns the first failing index in input order with its error, as a
+// one-by-one loop would: indices after a failure are skipped, indices
+// before it always run.
+func runAll(n, workers int, do func(i int) error) (int, error) {
 	errs := make([]error, n)
 	var next, firstBad atomic.Int64
 	firstBad.Store(int64(n))
@@ -329,22 +366,19 @@ func evaluateAllContext(ctx context.Context, cases []calc.Case, workers int) ([]
 				if i >= int64(n) || i > firstBad.Load() {
 					return
 				}
-				res, err := calc.EvaluateContext(ctx, cases[i])
-				if err != nil {
+				if err := do(int(i)); err != nil {
 					errs[i] = err
 					for bad := firstBad.Load(); i < bad && !firstBad.CompareAndSwap(bad, i); bad = firstBad.Load() {
 					}
-					continue
 				}
-				results[i] = res
 			}
 		})
 	}
 	wg.Wait()
 	if bad := int(firstBad.Load()); bad < n {
-		return nil, bad, errs[bad]
+		return bad, errs[bad]
 	}
-	return results, 0, nil
+	return 0, nil
 }
 
 // isTerminal reports whether w is a character device such as a terminal.

@@ -20,6 +20,8 @@ import (
 	"syscall"
 	"testing"
 	"time"
+
+	"fogbench/calc"
 )
 
 // Without credentials, fogbench refuses every address that other machines
@@ -186,7 +188,8 @@ func TestEvalRefusesHostileInput(t *testing.T) {
 		{strings.Replace(one, `"temperature_k":310`, `"temperature_k":1e9`, 1), "gas.temperature_k"},
 		{strings.Replace(one, `"liquid_temperature_k":298.15`, `"liquid_temperature_k":0`, 1), "liquid_temperature_k"},
 		{strings.Replace(one, `"bins":4}`, `"bins":4,"d_max_m":1e300}`, 1), "distribution.d_max_m"},
-		{"[" + strings.Repeat(one+",", 100) + one + "]", "file"},
+		{"[" + strings.Repeat(one+",", calc.MaxBatchCases) + one + "]", "file"},
+		{"[" + one + strings.Repeat(" ", calc.MaxBatchFileBytes) + "]", "file"},
 		{`{"format":"fogbench-case/1","name":NaN}`, "file"},
 	} {
 		var out, errb bytes.Buffer

@@ -24,6 +24,14 @@ const MaxCaseFileBytes = 8 << 20
 // evaluation, and one request must not occupy the server for hours.
 const MaxCasesPerFile = 100
 
+// MaxBatchFileBytes and MaxBatchCases bound a batch file read by
+// DecodeBatch for `fogbench eval`, which runs on the engineer's own machine
+// and time (Ctrl-C stops it), so a whole study fits in one process.
+const (
+	MaxBatchFileBytes = 64 << 20
+	MaxBatchCases     = 10000
+)
+
 // Case is one spray scenario as an engineer enters it: the liquid, the gas it
 // is sprayed into, and the drop-size distribution. All quantities are SI with
 // the unit in the JSON name.
@@ -116,15 +124,22 @@ type Evaporation struct {
 	MaxTimeS          float64 `json:"max_time_s,omitempty"`                // history horizon; default: to 99 % evaporated
 }
 
-// Decode reads one case or a JSON array of cases. Unknown fields are errors,
-// so a misspelt field name is reported rather than silently ignored.
+// Decode reads one case or a JSON array of cases, at most MaxCaseFileBytes
+// and MaxCasesPerFile. Unknown fields are errors, so a misspelt field name is
+// reported rather than silently ignored.
 func Decode(r io.Reader) ([]Case, error) {
-	data, err := io.ReadAll(io.LimitReader(r, MaxCaseFileBytes+1))
+	return DecodeBatch(r, MaxCaseFileBytes, MaxCasesPerFile)
+}
+
+// DecodeBatch is Decode with the file's size and case count bounded by
+// maxBytes and maxCases instead of the server's limits.
+func DecodeBatch(r io.Reader, maxBytes, maxCases int) ([]Case, error) {
+	data, err := io.ReadAll(io.LimitReader(r, int64(maxBytes)+1))
 	if err != nil {
 		return nil, fmt.Errorf("read case file: %w", err)
 	}
-	if len(data) > MaxCaseFileBytes {
-		return nil, &valid.FieldError{Field: "file", Message: fmt.Sprintf("case file is larger than %d MiB", MaxCaseFileBytes>>20)}
+	if len(data) > maxBytes {
+		return nil, &valid.FieldError{Field: "file", Message: fmt.Sprintf("case file is larger than %d MiB", maxBytes>>20)}
 	}
 	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
 	trimmed := bytes.TrimSpace(data)
@@ -136,9 +151,9 @@ func Decode(r io.Reader) ([]Case, error) {
 		if err := json.Unmarshal(trimmed, &raws); err != nil {
 			return nil, jsonError("", err)
 		}
-		if len(raws) > MaxCasesPerFile {
+		if len(raws) > maxCases {
 			return nil, &valid.FieldError{Field: "file", Value: fmt.Sprint(len(raws)),
-				Message: fmt.Sprintf("holds too many cases; at most %d per file", MaxCasesPerFile)}
+				Message: fmt.Sprintf("holds too many cases; at most %d per file", maxCases)}
 		}
 		cases := make([]Case, len(raws))
 		for i, raw := range raws {

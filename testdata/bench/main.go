@@ -56,13 +56,13 @@ func run(n int, seed uint64, runs int, dir, bin, python, script string) error {
 	if err := writeJSON(batch, cases); err != nil {
 		return err
 	}
-	// fogbench eval takes at most calc.MaxCasesPerFile cases per file, so
-	// it runs once per chunk (a process start each); the reference reads
-	// the whole batch in one process, its most favourable form.
+	// Both programs read the whole batch in one process (fogbench eval
+	// takes up to calc.MaxBatchCases cases per file; a larger batch runs
+	// in chunks, a process start each).
 	var chunks []string
-	for i := 0; i < n; i += calc.MaxCasesPerFile {
+	for i := 0; i < n; i += calc.MaxBatchCases {
 		f := filepath.Join(dir, fmt.Sprintf("chunk-%03d.json", len(chunks)))
-		if err := writeJSON(f, cases[i:min(n, i+calc.MaxCasesPerFile)]); err != nil {
+		if err := writeJSON(f, cases[i:min(n, i+calc.MaxBatchCases)]); err != nil {
 			return err
 		}
 		chunks = append(chunks, f)
@@ -71,8 +71,8 @@ func run(n int, seed uint64, runs int, dir, bin, python, script string) error {
 	for _, c := range cases {
 		bins += c.Distribution.Bins
 	}
-	fmt.Printf("batch: %d cases (seed %d), %d bins in all, 201 history points each; fogbench in %d processes of <= %d cases, the reference in one\n",
-		n, seed, bins, len(chunks), calc.MaxCasesPerFile)
+	fmt.Printf("batch: %d cases (seed %d), %d bins in all, 201 history points each; fogbench in %d process(es) of <= %d cases, the reference in one\n",
+		n, seed, bins, len(chunks), calc.MaxBatchCases)
 
 	pyOut := filepath.Join(dir, "reference.json")
 	var fbOuts []string
