@@ -42,9 +42,17 @@ func Frossling(re, sc float64) float64 {
 // (1989), Int. J. Heat Mass Transfer 32(9), 1605–1618 (form from memory).
 // Fitted for 0 ≤ B ≤ 20 and 1 ≤ Pr, Sc ≤ 3; defined for any B > −1 and used
 // unchanged for condensation (B < 0), which Conditions.Drop flags. F is not
-// monotonic: it peaks near B ≈ 10.
+// monotonic: it peaks near B ≈ 10. (1 + B)^0.7 is taken as
+// e^(0.7 ln(1 + B)) with ln(1 + B) by math.Log1p, which the fixed point on
+// Nu* calls several times per rate: math.Pow was a sixth of an
+// Abramzon–Sirignano history.
 func FilmCorrection(b float64) float64 {
-	return math.Pow(1+b, 0.7) * lnOnePlusOverB(b)
+	l := math.Log1p(b)
+	ratio := l / b // ln(1 + B)/B, as lnOnePlusOverB
+	if math.Abs(b) < 1e-5 {
+		ratio = lnOnePlusOverB(b)
+	}
+	return math.Exp(0.7*l) * ratio
 }
 
 // CliftNumber returns the isolated-sphere Sherwood (or Nusselt) number used

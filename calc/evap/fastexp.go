@@ -40,3 +40,45 @@ func expFast(x float64) float64 {
 	y := t + t*p
 	return math.Float64frombits(math.Float64bits(y) + uint64(k>>expTableBits)<<52)
 }
+
+// logTableBits sets the table of logFast: centres c_j = 1 + (j + ½)/128 of
+// the mantissa intervals [1 + j/128, 1 + (j+1)/128), with 1/c_j and ln c_j.
+const logTableBits = 7
+
+var logTable = func() (t [1 << logTableBits]struct{ c, invC, lnC float64 }) {
+	for j := range t {
+		c := 1 + (float64(j)+0.5)/(1<<logTableBits)
+		t[j].c, t[j].invC, t[j].lnC = c, 1/c, math.Log(c)
+	}
+	return
+}()
+
+// ln 2 split so that e·logLn2Hi is exact for every binary exponent e of a
+// float64 (logLn2Hi has its 32 low mantissa bits zero; the pair is the
+// fdlibm split of ln 2).
+const (
+	logLn2Hi = 6.93147180369123816490e-01
+	logLn2Lo = 1.90821492927058770002e-10
+)
+
+// logFast returns ln x for the history sweep, where math.Log of each bin's
+// remaining evaporation time was a fixed share of every time step
+// (docs/performance.md). With x = 2^e·m, m ∈ [1, 2), and c the centre of
+// m's interval in a 128-entry table, ln x = e·ln 2 + ln c + ln(1 + r),
+// r = (m − c)/c, |r| ≤ 1/257, and ln(1 + r) is its Taylor polynomial to r⁷
+// (truncation below 2^-64 absolute). m − c is exact, so the result is within
+// a few units of the last place of the larger of |ln x| and ln 2 of math.Log
+// (TestLogFastMatchesLog). Zero, negative, subnormal, infinite and NaN
+// arguments are math.Log's.
+func logFast(x float64) float64 {
+	if !(x >= 0x1p-1022 && x <= math.MaxFloat64) {
+		return math.Log(x)
+	}
+	b := math.Float64bits(x)
+	e := float64(int64(b>>52) - 1023)
+	t := &logTable[(b>>(52-logTableBits))&(1<<logTableBits-1)]
+	m := math.Float64frombits(b&(1<<52-1) | 1023<<52)
+	r := (m - t.c) * t.invC
+	p := r - r*r*(0.5-r*(1.0/3-r*(0.25-r*(0.2-r*(1.0/6-r*(1.0/7))))))
+	return e*logLn2Hi + (t.lnC + (p + e*logLn2Lo))
+}

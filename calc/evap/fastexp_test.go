@@ -42,3 +42,45 @@ func TestExpFastMatchesExp(t *testing.T) {
 		}
 	}
 }
+
+// TestLogFastMatchesLog holds logFast within 2 ulp of max(|ln x|, ln 2) of
+// math.Log (itself within 1 ulp of ln x, per its documentation) over seeded
+// arguments across the normal range, near 1 and at the edges of the table
+// intervals, and checks it hands zero, negatives, subnormals, ±Inf and NaN
+// to math.Log.
+func TestLogFastMatchesLog(t *testing.T) {
+	const tolULP = 2
+	rng := rand.New(rand.NewPCG(7, 11))
+	var xs []float64
+	for range 200000 {
+		xs = append(xs, math.Exp(-708+1416*rng.Float64()), math.Exp(-30+35*rng.Float64()), 0.9+0.2*rng.Float64())
+	}
+	for e := -1022; e <= 1023; e += 7 {
+		for j := 0; j <= 128; j++ { // interval edges 1 + j/128
+			x := math.Ldexp(1+float64(j)/128, e)
+			if j == 128 && e == 1023 {
+				continue
+			}
+			xs = append(xs, math.Nextafter(x, 0), x, math.Nextafter(x, math.Inf(1)))
+		}
+	}
+	worst := 0.0
+	for _, x := range xs {
+		got, want := logFast(x), math.Log(x)
+		scale := math.Max(math.Abs(want), math.Ln2)
+		ulp := math.Nextafter(scale, math.Inf(1)) - scale
+		if u := math.Abs(got-want) / ulp; u > worst {
+			worst = u
+		}
+	}
+	if worst > tolULP {
+		t.Errorf("logFast differs from math.Log by %.2f ulp of max(|ln x|, ln 2), more than %d", worst, tolULP)
+	}
+	t.Logf("largest difference from math.Log: %.2f ulp of max(|ln x|, ln 2) over %d arguments", worst, len(xs))
+	for _, x := range []float64{math.NaN(), math.Inf(1), math.Inf(-1), 0, -1, 0x1p-1074, 0x1p-1023, math.MaxFloat64, 1} {
+		got, want := logFast(x), math.Log(x)
+		if !(got == want || math.IsNaN(got) && math.IsNaN(want)) {
+			t.Errorf("logFast(%v) = %v, math.Log gives %v", x, got, want)
+		}
+	}
+}

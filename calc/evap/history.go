@@ -499,7 +499,13 @@ func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) error {
 func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) error {
 	n := len(sp.d0)
 	tb := sp.table
-	v0, last := tb.v[0], len(tb.v)-2
+	// Per bin: ln d0, so that d/d0 = e^(u − ln d0) needs no division, and
+	// w/d0, so that the bin's share of Σ n d² is (w/d0)(d/d0)².
+	lnD0 := make([]float64, n)
+	wOverD0 := make([]float64, n)
+	for i, d := range sp.d0 {
+		lnD0[i], wOverD0[i] = math.Log(d), sp.w[i]/d
+	}
 	gone := 0 // bins [0, gone) have evaporated
 	evGone := 0.0
 	for k, t := range ts {
@@ -519,41 +525,22 @@ func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) error {
 				v := sp.w[i]
 				vol[i], sp.dNow[i] = v, sp.d0[i]
 				rem += v
-				s2 += v / sp.d0[i]
+				s2 += wOverD0[i]
 				continue
 			}
-			tau := sp.g0[i] - t
-			var d float64
-			if t <= 0 {
-				d = sp.d0[i] // the initial state exactly (see state)
-			} else if tau > 0 {
-				v := math.Log(tau)
-				if v <= v0 {
-					d = expFast(tb.u[0] + (v-v0)/tb.p0)
-				} else {
-					j := sp.cursor[i]
-					if j < 0 || j > last || v < tb.v[j] || v > tb.v[j+1] {
-						if j >= 0 && j <= last && v < tb.v[j] {
-							for j > 0 && v < tb.v[j] {
-								j--
-							}
-						} else {
-							j = tb.search(v)
-						}
-					}
-					sp.cursor[i] = j
-					d = expFast(tb.lnD(j, v))
+			r := 1.0 // at t = 0 the initial state exactly (see state)
+			if t > 0 {
+				r = 0
+				if tau := sp.g0[i] - t; tau > 0 {
+					r = expFast(tb.lnDAt(logFast(tau), &sp.cursor[i]) - lnD0[i])
 				}
 			}
-			r := d / sp.d0[i]
 			f := r * r * r
 			v := sp.w[i] * f
-			vol[i], sp.dNow[i] = v, d
+			vol[i], sp.dNow[i] = v, r*sp.d0[i]
 			rem += v
 			ev += sp.w[i] * (1 - f)
-			if d > 0 {
-				s2 += v / d
-			}
+			s2 += wOverD0[i] * (r * r)
 		}
 		evap[k] = math.Max(0, ev)
 		if s2 > 0 {

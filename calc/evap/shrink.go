@@ -19,6 +19,26 @@ const tableNodesPerDecade = 16
 type shrinkTable struct {
 	u, v, q []float64 // ln d, ln G, du/dv at the nodes
 	p0      float64
+	seg     []hermiteSegment // node interval j, for lnD
+}
+
+// hermiteSegment is the cubic Hermite of one node interval in monomial
+// form, u = a0 + x(a1 + x(a2 + x a3)) with x = (v − v0)·invH: the sweep
+// evaluates it once per bin and time step, and the Lagrange form cost a
+// division and twice the multiplications.
+type hermiteSegment struct {
+	v0, invH, a0, a1, a2, a3 float64
+}
+
+// setSegments fills tb.seg from the nodes.
+func (tb *shrinkTable) setSegments() {
+	tb.seg = make([]hermiteSegment, len(tb.u)-1)
+	for j := range tb.seg {
+		H := tb.v[j+1] - tb.v[j]
+		u0, u1, m0, m1 := tb.u[j], tb.u[j+1], H*tb.q[j], H*tb.q[j+1]
+		tb.seg[j] = hermiteSegment{v0: tb.v[j], invH: 1 / H, a0: u0, a1: m0,
+			a2: 3*(u1-u0) - 2*m0 - m1, a3: 2*(u0-u1) + m0 + m1}
+	}
 }
 
 // buildShrinkTable integrates G over [dLo, dHi] with five-point
@@ -100,6 +120,7 @@ func buildShrinkTable(rate *rateFunc, dLo, dHi float64) (*shrinkTable, bool, err
 		G += half * sum
 		tb.v[j], tb.q[j] = math.Log(G), G/gn[j]
 	}
+	tb.setSegments()
 	return tb, true, nil
 }
 
@@ -112,31 +133,35 @@ func cubicThrough(y []float64, x float64) float64 {
 
 // lnD returns ln d on node interval j for v = ln G (cubic Hermite).
 func (tb *shrinkTable) lnD(j int, v float64) float64 {
-	H := tb.v[j+1] - tb.v[j]
-	x := (v - tb.v[j]) / H
-	x2 := x * x
-	x3 := x2 * x
-	return (2*x3-3*x2+1)*tb.u[j] + (x3-2*x2+x)*H*tb.q[j] + (-2*x3+3*x2)*tb.u[j+1] + (x3-x2)*H*tb.q[j+1]
+	s := &tb.seg[j]
+	x := (v - s.v0) * s.invH
+	return s.a0 + x*(s.a1+x*(s.a2+x*s.a3))
 }
 
 // diameter returns d for a remaining evaporation time tau (s); tau ≤ 0
 // means the drop is gone. *cursor is a node index hint that callers
-// walking towards smaller tau keep between calls. It takes e^u by expFast
-// (within 3 ulp of math.Exp), as sweepSteady does, so both give the same
-// diameters.
+// walking towards smaller tau keep between calls. It takes ln tau by
+// logFast and e^u by expFast (within a few ulp of math.Log and math.Exp),
+// as sweepSteady does.
 func (tb *shrinkTable) diameter(tau float64, cursor *int) float64 {
 	if !(tau > 0) {
 		return 0
 	}
-	v := math.Log(tau)
+	return expFast(tb.lnDAt(logFast(tau), cursor))
+}
+
+// lnDAt returns ln d at v = ln G: the Hermite of the interval holding v,
+// found from the hint *cursor (walking down, the usual case in a sweep, or
+// by bisection), or below the first node the power-law tail.
+func (tb *shrinkTable) lnDAt(v float64, cursor *int) float64 {
 	if v <= tb.v[0] {
-		return expFast(tb.u[0] + (v-tb.v[0])/tb.p0)
+		return tb.u[0] + (v-tb.v[0])/tb.p0
 	}
 	last := len(tb.v) - 2
 	j := *cursor
 	if j < 0 || j > last || v < tb.v[j] || v > tb.v[j+1] {
 		if j >= 0 && j <= last && v < tb.v[j] {
-			for j > 0 && v < tb.v[j] { // walk down: the usual case in a sweep
+			for j > 0 && v < tb.v[j] {
 				j--
 			}
 		} else {
@@ -144,7 +169,7 @@ func (tb *shrinkTable) diameter(tau float64, cursor *int) float64 {
 		}
 	}
 	*cursor = j
-	return expFast(tb.lnD(j, v))
+	return tb.lnD(j, v)
 }
 
 func (tb *shrinkTable) search(v float64) int {
