@@ -47,6 +47,11 @@ func TestResultJSONMatchesEncodingJSON(t *testing.T) {
 		}
 		evaluated++
 		check("evaluated case", res)
+		// The size hint covers an evaluated result, so its buffer is
+		// allocated once.
+		if out, _ := res.AppendJSON(nil); len(out) > res.jsonSizeHint() {
+			t.Fatalf("evaluated case: %d bytes of JSON in a buffer of %d, hint %d", len(out), cap(out), res.jsonSizeHint())
+		}
 		if i%3 == 0 {
 			all = append(all, res)
 		}
