@@ -247,7 +247,18 @@ func propertyCheck(ts, psat, sigma, rhoL, lat, mv float64) error {
 	return nil
 }
 
+// check rejects film properties that are not positive and finite (the
+// mean free path may be zero: evap then estimates it); the error names the
+// first bad one. Every rate evaluation checks its film, so usable values
+// pass one comparison chain (NaN fails every comparison).
 func (f Film) check() error {
+	const big = math.MaxFloat64
+	if f.T > 0 && f.T <= big && f.Density > 0 && f.Density <= big && f.Viscosity > 0 && f.Viscosity <= big &&
+		f.Conductivity > 0 && f.Conductivity <= big && f.HeatCapacity > 0 && f.HeatCapacity <= big &&
+		f.VaporHeatCapacity > 0 && f.VaporHeatCapacity <= big && f.Diffusivity > 0 && f.Diffusivity <= big &&
+		f.MeanFreePath >= 0 && f.MeanFreePath <= big {
+		return nil
+	}
 	for _, p := range []struct {
 		name string
 		v    float64

@@ -377,8 +377,9 @@ func (sp *sprayPaths) remaining(t float64) float64 {
 			// state's transient branch, without the diameter.
 			f = sp.tr[i].fraction(t)
 		} else {
-			cur := -1
-			_, f = sp.state(i, t, &cur)
+			// Each bin keeps its table cursor between calls: the root
+			// search's times close in, so the hint mostly holds.
+			_, f = sp.state(i, t, &sp.cursor[i])
 		}
 		m += sp.w[i] * f
 	}

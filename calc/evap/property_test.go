@@ -1,11 +1,13 @@
 package evap
 
 import (
+	"errors"
 	"math"
 	"math/rand/v2"
 	"testing"
 
 	"fogbench/calc/phys"
+	"fogbench/calc/valid"
 )
 
 // Seeded random conditions: the enhancement is ≥ 1 and falls with d; the
@@ -159,4 +161,47 @@ func TestTransientMassBalance(t *testing.T) {
 		t.Errorf("m0 = %g", p.m0)
 	}
 	_ = phys.ZeroCelsius
+}
+
+// Film.check accepts positive finite properties (and a zero mean free
+// path) and names the first field that is zero, negative, infinite or NaN.
+func TestFilmCheckNamesBadField(t *testing.T) {
+	good := Film{T: 300, Density: 1.2, Viscosity: 1.8e-5, Conductivity: 0.026, HeatCapacity: 1006,
+		VaporHeatCapacity: 1870, Diffusivity: 2.5e-5, MeanFreePath: 6.7e-8}
+	if err := good.check(); err != nil {
+		t.Fatalf("usable film refused: %v", err)
+	}
+	noLambda := good
+	noLambda.MeanFreePath = 0
+	if err := noLambda.check(); err != nil {
+		t.Fatalf("zero mean free path refused: %v", err)
+	}
+	fields := []struct {
+		name string
+		set  func(*Film, float64)
+		zero bool // zero is allowed
+	}{
+		{"film.temperature_k", func(f *Film, v float64) { f.T = v }, false},
+		{"film.density_kg_m3", func(f *Film, v float64) { f.Density = v }, false},
+		{"film.viscosity_pa_s", func(f *Film, v float64) { f.Viscosity = v }, false},
+		{"film.conductivity_w_m_k", func(f *Film, v float64) { f.Conductivity = v }, false},
+		{"film.heat_capacity_j_kg_k", func(f *Film, v float64) { f.HeatCapacity = v }, false},
+		{"film.vapor_heat_capacity_j_kg_k", func(f *Film, v float64) { f.VaporHeatCapacity = v }, false},
+		{"film.diffusivity_m2_s", func(f *Film, v float64) { f.Diffusivity = v }, false},
+		{"film.mean_free_path_m", func(f *Film, v float64) { f.MeanFreePath = v }, true},
+	}
+	for _, fd := range fields {
+		for _, v := range []float64{math.NaN(), math.Inf(1), math.Inf(-1), -1, 0} {
+			if v == 0 && fd.zero {
+				continue
+			}
+			f := good
+			fd.set(&f, v)
+			err := f.check()
+			var fe *valid.FieldError
+			if !errors.As(err, &fe) || fe.Field != fd.name {
+				t.Errorf("%s = %v: error %v, want one naming the field", fd.name, v, err)
+			}
+		}
+	}
 }

@@ -151,8 +151,9 @@ func (tb *shrinkTable) diameter(tau float64, cursor *int) float64 {
 }
 
 // lnDAt returns ln d at v = ln G: the Hermite of the interval holding v,
-// found from the hint *cursor (walking down, the usual case in a sweep, or
-// by bisection), or below the first node the power-law tail.
+// found from the hint *cursor (that interval or the one below, the usual
+// cases in a sweep, else by bisection), or below the first node the
+// power-law tail.
 func (tb *shrinkTable) lnDAt(v float64, cursor *int) float64 {
 	if v <= tb.v[0] {
 		return tb.u[0] + (v-tb.v[0])/tb.p0
@@ -160,10 +161,8 @@ func (tb *shrinkTable) lnDAt(v float64, cursor *int) float64 {
 	last := len(tb.v) - 2
 	j := *cursor
 	if j < 0 || j > last || v < tb.v[j] || v > tb.v[j+1] {
-		if j >= 0 && j <= last && v < tb.v[j] {
-			for j > 0 && v < tb.v[j] {
-				j--
-			}
+		if j >= 1 && j <= last && v < tb.v[j] && v >= tb.v[j-1] {
+			j--
 		} else {
 			j = tb.search(v)
 		}
