@@ -21,6 +21,9 @@ const (
 // (form from memory). Fitted for 0 ≤ Re ≤ 200; Conditions.Drop warns
 // above that.
 func RanzMarshall(re, prOrSc float64) float64 {
+	if re == 0 {
+		return 2 // a stagnant drop; skips the cube root
+	}
 	return 2 + 0.6*math.Sqrt(re)*math.Cbrt(prOrSc)
 }
 

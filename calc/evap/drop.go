@@ -189,10 +189,10 @@ func (c *Conditions) evaluateAt(d, ts float64, curved bool, cache *liquidAt) (dr
 	}
 	// B_T' depends on Nu* through φ and Nu* on B_T' through F: a fixed
 	// point that converges in a few sweeps because F varies slowly.
-	var bte float64
+	var bte, phiLnBM float64
 	for it := 0; it < 50; it++ {
-		phi := (cpv / cp) * (e.sh / e.nu) / le
-		bte = math.Expm1(phi * lnbm)
+		phiLnBM = (cpv / cp) * (e.sh / e.nu) / le * lnbm
+		bte = math.Expm1(phiLnBM)
 		if !as || e.re == 0 {
 			break
 		}
@@ -200,8 +200,8 @@ func (c *Conditions) evaluateAt(d, ts float64, curved bool, cache *liquidAt) (dr
 		done := math.Abs(nu-e.nu) <= 1e-13*nu
 		e.nu = nu
 		if done {
-			phi = (cpv / cp) * (e.sh / e.nu) / le
-			bte = math.Expm1(phi * lnbm)
+			phiLnBM = (cpv / cp) * (e.sh / e.nu) / le * lnbm
+			bte = math.Expm1(phiLnBM)
 			break
 		}
 	}
@@ -221,7 +221,13 @@ func (c *Conditions) evaluateAt(d, ts float64, curved bool, cache *liquidAt) (dr
 		e.flags |= warnContinuumAtHighKn
 	}
 	e.mdot = math.Pi * d * rho * diff * e.sh * lnbm * e.fs
-	e.q = e.fs * math.Pi * d * k * e.nu * (c.GasTemperature - ts) * lnOnePlusOverB(bte)
+	// ln(1 + B_T')/B_T' with ln(1 + B_T') = φ ln(1 + B_M) exactly, since
+	// B_T' = e^(φ ln(1 + B_M)) − 1: no second logarithm.
+	stefan := 1.0
+	if bte != 0 {
+		stefan = phiLnBM / bte
+	}
+	e.q = e.fs * math.Pi * d * k * e.nu * (c.GasTemperature - ts) * stefan
 	e.heatToLiquid = e.q - e.mdot*e.lat
 	return e, nil
 }
