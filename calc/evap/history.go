@@ -283,8 +283,11 @@ type sprayPaths struct {
 	// ctx stops a history early (Spray.HistoryContext); nil never stops.
 	ctx context.Context
 	// directTransient integrates every bin's heating phase on its own even
-	// where the scaled shared path applies (tests compare the two).
+	// where the scaled shared path or the interpolated paths apply (tests
+	// compare them).
 	directTransient bool
+	// integrated counts the heating phases integrated by the last history.
+	integrated int
 }
 
 // stopped returns the context's error, wrapped, once the history's context
