@@ -40,6 +40,31 @@ func (p *transientPath) at(t float64) (float64, float64) {
 	return p.diameter(s, T), s * math.Sqrt(s)
 }
 
+// atFrom is at with the step found by walking from *cur (a sweep's times
+// increase, so the step is usually the same or the next); *cur is updated.
+func (p *transientPath) atFrom(t float64, cur *int) (float64, float64) {
+	n := len(p.t)
+	if t >= p.t[n-1] {
+		return p.at(t)
+	}
+	j := *cur
+	if j < 0 || j >= n-1 || t < p.t[j] {
+		j = sort.SearchFloat64s(p.t, t)
+		if j > 0 {
+			j--
+		}
+	}
+	for t > p.t[j+1] {
+		j++
+	}
+	*cur = j
+	h := p.t[j+1] - p.t[j]
+	x := (t - p.t[j]) / h
+	s := math.Max(0, hermite(x, h, p.s[j], p.s[j+1], p.ds[j], p.ds[j+1]))
+	T := hermite(x, h, p.T[j], p.T[j+1], p.dT[j], p.dT[j+1])
+	return p.diameter(s, T), s * math.Sqrt(s)
+}
+
 // hermite is the cubic Hermite interpolant at x ∈ [0, 1] of a step of
 // length h with end values y0, y1 and end slopes d0, d1.
 func hermite(x, h, y0, y1, d0, d1 float64) float64 {

@@ -203,3 +203,37 @@ func volumeQuantile(d, vol []float64, v, q float64) float64 {
 	}
 	return prevD
 }
+
+// atFrom, walking a cursor, is at bit for bit on increasing times (the
+// sweep's order), on stored steps, and after a jump back.
+func TestTransientAtFromMatchesAt(t *testing.T) {
+	c := waterInAir()
+	c.Transition = true
+	s, err := c.NewSpray([]float64{0.4e-6, 5e-6, 40e-6, 120e-6}, []float64{1, 1, 1, 1}, HistoryOptions{Transient: true, InjectionTemperature: 285})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := s.History(0); err != nil {
+		t.Fatal(err)
+	}
+	checked := 0
+	for _, p := range s.sp.tr {
+		end := p.t[len(p.t)-1] * 1.1
+		cur := -1
+		for k := 0; k <= 500; k++ {
+			x := end * float64(k) / 500
+			if k%50 == 0 {
+				x = p.t[(k/50)%len(p.t)]
+			}
+			d1, f1 := p.atFrom(x, &cur)
+			d2, f2 := p.at(x)
+			if d1 != d2 || f1 != f2 {
+				t.Fatalf("t=%g: atFrom %v %v, at %v %v", x, d1, f1, d2, f2)
+			}
+			checked++
+		}
+	}
+	if checked == 0 {
+		t.Fatal("no transient path checked")
+	}
+}
