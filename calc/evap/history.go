@@ -283,8 +283,11 @@ type sprayPaths struct {
 	// ctx stops a history early (Spray.HistoryContext); nil never stops.
 	ctx context.Context
 	// directTransient integrates every bin's heating phase on its own even
-	// where the scaled shared path applies (tests compare the two).
+	// where the scaled shared path or the interpolated paths apply (tests
+	// compare them).
 	directTransient bool
+	// integrated counts the heating phases integrated by the last history.
+	integrated int
 }
 
 // stopped returns the context's error, wrapped, once the history's context
@@ -465,13 +468,19 @@ func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) error {
 	if sp.tr == nil && sp.table != nil {
 		return sp.sweepSteady(ts, evap, d32, dv50, vol)
 	}
+	trCur := make([]int, n) // each heating path's step, walked forward
 	for k, t := range ts {
 		if err := sp.stopped(); err != nil {
 			return err
 		}
 		rem, s3, s2, ev := 0.0, 0.0, 0.0, 0.0
 		for i := 0; i < n; i++ {
-			d, f := sp.state(i, t, &sp.cursor[i])
+			var d, f float64
+			if sp.tr != nil && sp.tr[i] != nil && t < sp.join[i] {
+				d, f = sp.tr[i].atFrom(t, &trCur[i])
+			} else {
+				d, f = sp.state(i, t, &sp.cursor[i])
+			}
 			v := sp.w[i] * f
 			vol[i] = v
 			rem += v

@@ -40,6 +40,31 @@ func (p *transientPath) at(t float64) (float64, float64) {
 	return p.diameter(s, T), s * math.Sqrt(s)
 }
 
+// atFrom is at with the step found by walking from *cur (a sweep's times
+// increase, so the step is usually the same or the next); *cur is updated.
+func (p *transientPath) atFrom(t float64, cur *int) (float64, float64) {
+	n := len(p.t)
+	if t >= p.t[n-1] {
+		return p.at(t)
+	}
+	j := *cur
+	if j < 0 || j >= n-1 || t < p.t[j] {
+		j = sort.SearchFloat64s(p.t, t)
+		if j > 0 {
+			j--
+		}
+	}
+	for t > p.t[j+1] {
+		j++
+	}
+	*cur = j
+	h := p.t[j+1] - p.t[j]
+	x := (t - p.t[j]) / h
+	s := math.Max(0, hermite(x, h, p.s[j], p.s[j+1], p.ds[j], p.ds[j+1]))
+	T := hermite(x, h, p.T[j], p.T[j+1], p.dT[j], p.dT[j+1])
+	return p.diameter(s, T), s * math.Sqrt(s)
+}
+
 // hermite is the cubic Hermite interpolant at x ∈ [0, 1] of a step of
 // length h with end values y0, y1 and end slopes d0, d1.
 func hermite(x, h, y0, y1, d0, d1 float64) float64 {
@@ -105,6 +130,7 @@ func (sp *sprayPaths) addTransient(tInj, maxTime float64) error {
 		horizon = 20 * longest
 	}
 	sp.tr = make([]*transientPath, len(sp.d0))
+	sp.integrated = 0
 	sp.heldWeight, sp.shortestLife = 0, math.Inf(1)
 	if !sp.directTransient && c.similarTransient() && len(sp.d0) > 1 {
 		done, err := sp.sharedTransient(tInj, horizon)
@@ -113,11 +139,20 @@ func (sp *sprayPaths) addTransient(tInj, maxTime float64) error {
 		}
 		sp.heldWeight, sp.shortestLife = 0, math.Inf(1)
 	}
+	if !sp.directTransient && !c.similarTransient() && len(sp.d0) >= interpMinBins {
+		done, err := sp.interpTransient(tInj, horizon)
+		if err != nil || done {
+			return err
+		}
+	}
 	for i := range sp.d0 {
+		if sp.tr[i] != nil {
+			continue // a reference of interpTransient, integrated already
+		}
 		if err := sp.stopped(); err != nil {
 			return err
 		}
-		p, tEnd, joined, err := sp.integrateBin(i, tInj, horizon, nil)
+		p, tEnd, joined, err := sp.integrateBin(i, tInj, horizon, nil, nil)
 		if err != nil {
 			return err
 		}
@@ -145,11 +180,24 @@ type stepRecord struct {
 	flags   uint
 }
 
+// pathExtension asks integrateBin to go on for a few accepted steps past
+// the join, so that an interpolation reference covers the join times of
+// its neighbours (see interpTransient); t, s, T, ds, dT receive the whole
+// path, the extension included.
+type pathExtension struct {
+	steps           int
+	t, s, T, ds, dT []float64
+}
+
 // integrateBin integrates bin i's heating phase (see addTransient); rec,
-// when not nil, receives one stepRecord per point of the path.
-func (sp *sprayPaths) integrateBin(i int, tInj, horizon float64, rec *[]stepRecord) (*transientPath, float64, bool, error) {
+// when not nil, receives one stepRecord per point of the path. With ext
+// the integration continues ext.steps accepted steps past the join; the
+// returned path, its end time and the warnings still stop at the join, as
+// without ext.
+func (sp *sprayPaths) integrateBin(i int, tInj, horizon float64, rec *[]stepRecord, ext *pathExtension) (*transientPath, float64, bool, error) {
 	c := sp.c
 	d0 := sp.d0[i]
+	sp.integrated++
 	rhoInj := c.Liquid.Density(tInj)
 	uTop := math.Inf(-1)
 	if sp.table != nil {
@@ -159,6 +207,7 @@ func (sp *sprayPaths) integrateBin(i int, tInj, horizon float64, rec *[]stepReco
 	var last dropEval
 	var evalErr error
 	maxKn, flags := 0.0, uint(0)
+	joinAt := 0 // points of the path up to the join, once joined
 	f := func(_ float64, y, dy []float64) error {
 		s := math.Max(y[0], 1e-30)
 		d := p.diameter(s, y[1])
@@ -171,6 +220,10 @@ func (sp *sprayPaths) integrateBin(i int, tInj, horizon float64, rec *[]stepReco
 		dy[0] = -(2.0 / 3) * e.mdot / (p.m0 * math.Sqrt(s))
 		dy[1] = e.heatToLiquid / (m * c.Liquid.HeatCapacity(y[1]))
 		last = e
+		if joinAt > 0 {
+			// The extension past the join is no part of this bin's path.
+			return nil
+		}
 		sp.rate.flags |= e.flags &^ warnKelvinSmall
 		maxKn = math.Max(maxKn, e.kn)
 		flags |= e.flags &^ (warnKelvinSmall | warnContinuumAtHighKn)
@@ -181,9 +234,17 @@ func (sp *sprayPaths) integrateBin(i int, tInj, horizon float64, rec *[]stepReco
 	if err := f(0, y, dy); err != nil {
 		return nil, 0, false, err
 	}
-	settled := func() bool {
-		return last.mdot > 0 && math.Abs(last.heatToLiquid) <= 1e-3*last.mdot*last.lat
+	// imbalance is |Q − ṁL| − 1e-3 ṁL, ≤ 0 once the heat balance has
+	// settled; +Inf while the drop does not evaporate.
+	imbalance := func(e dropEval) float64 {
+		if !(e.mdot > 0) {
+			return math.Inf(1)
+		}
+		return math.Abs(e.heatToLiquid) - 1e-3*e.mdot*e.lat
 	}
+	settled := func() bool { return imbalance(last) <= 0 }
+	prevImb := imbalance(last)
+	var joinNode [5]float64 // t, s, T, ds, dT where the heat balance settles
 	p.t, p.s, p.T, p.ds, p.dT = []float64{0}, []float64{1}, []float64{tInj}, []float64{dy[0]}, []float64{dy[1]}
 	if rec != nil {
 		*rec = append((*rec)[:0], stepRecord{settled(), maxKn, flags})
@@ -195,6 +256,9 @@ func (sp *sprayPaths) integrateBin(i int, tInj, horizon float64, rec *[]stepReco
 		p.T = append(p.T, y[1])
 		p.ds = append(p.ds, dy[0])
 		p.dT = append(p.dT, dy[1])
+		if joinAt > 0 {
+			return len(p.t) >= joinAt+ext.steps || y[0] <= 1e-6
+		}
 		if rec != nil {
 			*rec = append(*rec, stepRecord{settled(), maxKn, flags})
 		}
@@ -202,23 +266,79 @@ func (sp *sprayPaths) integrateBin(i int, tInj, horizon float64, rec *[]stepReco
 			p.gone = true
 			return true
 		}
-		if settled() && sp.table != nil {
-			if math.Log(p.diameter(y[0], y[1])) <= uTop {
-				joined = true
-				return true
+		imb := imbalance(last)
+		if imb <= 0 && sp.table != nil && math.Log(p.diameter(y[0], y[1])) <= uTop {
+			n := len(p.t) - 1
+			joinNode = [5]float64{t, y[0], y[1], dy[0], dy[1]}
+			if prevImb > 0 {
+				// The heat balance settled within this step: the drop joins
+				// where it did, found on the step's cubic Hermite
+				// interpolant, not at the step's end, so that where the
+				// steps fall does not move the join.
+				j, h := n-1, p.t[n]-p.t[n-1]
+				at := func(x float64) (float64, float64) {
+					return math.Max(hermite(x, h, p.s[j], p.s[n], p.ds[j], p.ds[n]), 1e-30),
+						hermite(x, h, p.T[j], p.T[n], p.dT[j], p.dT[n])
+				}
+				g := func(x float64) float64 {
+					sx, Tx := at(x)
+					e, err := c.evaluate(p.diameter(sx, Tx), Tx, c.Curvature)
+					if err != nil {
+						return math.NaN()
+					}
+					return imbalance(e)
+				}
+				if x, err := brent(g, 0, 1, prevImb, imb, 1e-6); err == nil && x < 1 {
+					sx, Tx := at(x)
+					yx, dyx := []float64{sx, Tx}, make([]float64, 2)
+					if f(0, yx, dyx) == nil && math.Log(p.diameter(sx, Tx)) <= uTop {
+						joinNode = [5]float64{p.t[j] + x*h, sx, Tx, dyx[0], dyx[1]}
+					}
+				}
 			}
+			joined = true
+			joinAt = n + 1
+			p.lastFrc = joinNode[1] * math.Sqrt(joinNode[1])
+			p.lastD = p.diameter(joinNode[1], joinNode[2])
+			return ext == nil || ext.steps == 0
 		}
+		prevImb = imb
 		return len(p.t) > 200000
 	}
 	// The first step is a small fraction of the drop's thermal time.
 	h0 := 1e-3 * p.m0 * c.Liquid.HeatCapacity(tInj) / (math.Pi * d0 * 0.03 * 2)
 	st := newODEStepper(f, 2, 1e-7, []float64{1e-10, 1e-6})
 	tEnd, err := st.run(0, horizon, y, h0, after)
-	if err != nil {
+	if err != nil && joinAt == 0 {
 		if evalErr != nil {
 			return nil, 0, false, evalErr
 		}
 		return nil, 0, false, fmt.Errorf("evap: transient heating of the %s m bin: %w", valid.FormatValue(d0), err)
+	}
+	if joinAt > 0 {
+		// The path ends at the join node; an extension goes on from the
+		// step's end after it.
+		n := joinAt - 1
+		tj := joinNode[0]
+		path := [5][]float64{p.t, p.s, p.T, p.ds, p.dT}
+		var out, whole [5][]float64
+		same := tj == p.t[n]
+		for a := range path {
+			x := path[a]
+			out[a] = append(append(make([]float64, 0, n+1), x[:n]...), joinNode[a])
+			if ext != nil {
+				if same {
+					whole[a] = x
+				} else {
+					whole[a] = append(append(append(make([]float64, 0, len(x)+1), x[:n]...), joinNode[a]), x[n:]...)
+				}
+			}
+		}
+		p.t, p.s, p.T, p.ds, p.dT = out[0], out[1], out[2], out[3], out[4]
+		if ext != nil {
+			ext.t, ext.s, ext.T, ext.ds, ext.dT = whole[0], whole[1], whole[2], whole[3], whole[4]
+		}
+		return p, tj, true, nil
 	}
 	p.lastFrc = y[0] * math.Sqrt(math.Max(y[0], 0))
 	p.lastD = p.diameter(math.Max(y[0], 0), y[1])
@@ -257,7 +377,7 @@ func (sp *sprayPaths) sharedTransient(tInj, horizon float64) (bool, error) {
 	c := sp.c
 	ref := len(sp.d0) - 1
 	var rec []stepRecord
-	pr, tEnd, joined, err := sp.integrateBin(ref, tInj, horizon, &rec)
+	pr, tEnd, joined, err := sp.integrateBin(ref, tInj, horizon, &rec, nil)
 	if err != nil || !(joined || pr.gone) || len(pr.t) > 200000 {
 		// Each bin is integrated on its own, which reports any error for
 		// the bin where it first occurs.
@@ -288,8 +408,10 @@ func (sp *sprayPaths) sharedTransient(tInj, horizon float64) (bool, error) {
 				break
 			}
 		}
-		if k == len(pr.t) {
-			// The largest bin's last step stops every smaller one.
+		if k == len(pr.t) || bJoined && k < len(pr.t)-1 {
+			// The largest bin's last step stops every smaller one; and a
+			// smaller bin that joins where the largest could not (above
+			// the table) would find its own join within the step.
 			return false, nil
 		}
 		p.t, p.ds, p.dT = make([]float64, k+1), make([]float64, k+1), make([]float64, k+1)
@@ -309,5 +431,357 @@ func (sp *sprayPaths) sharedTransient(tInj, horizon float64) (bool, error) {
 		sp.setTransient(i, p, p.t[k], bJoined)
 	}
 	sp.setTransient(ref, pr, tEnd, joined)
+	return true, nil
+}
+
+// Interpolated heating paths. With the Kelvin or transition factor or slip
+// the heating path in τ = t/d0² depends on d0, but smoothly: a few bins
+// (references) are integrated and every other bin's path is interpolated
+// in ln d0 at fixed τ between them. A reference interval is split (its
+// midpoint bin integrated and compared with the interpolation) until the
+// interpolation error is below interpTransientTol; see docs/methods-evap.md.
+const (
+	// interpTransientTol bounds the interpolation error a midpoint check
+	// accepts: the largest of the remaining mass fraction's and d/d0's
+	// absolute differences over the heating phase and after it, and the
+	// lifetime's relative difference. It is a quarter of the 1e-6 that
+	// TestInterpTransientMatchesDirect holds each bin to, itself below the
+	// 2–4e-6 by which the per-bin integration at rtol 1e-7 differs from one
+	// at rtol 1e-10, and a hundredth of the 1e-4 the Python reference asks.
+	interpTransientTol = 2.5e-7
+	// interpMinBins is the smallest spray interpolated: below it the
+	// references and checks would cost about as much as every bin.
+	interpMinBins = 12
+	// interpExtraSteps is how far a reference integrates past its join:
+	// its neighbours may join a little later in τ.
+	interpExtraSteps = 3
+)
+
+// transientRef is an integrated reference bin's path in τ = t/d0², with
+// the slopes per unit τ, extended past its join (node join).
+type transientRef struct {
+	bin               int
+	u                 float64 // ln d0
+	tau, s, T, ds, dT []float64
+	join              int
+	cur               int // cursor of the last evaluation (interpolatedPath)
+}
+
+// eval returns s, T and their slopes per unit τ at τ by the path's cubic
+// Hermite interpolant, walking from r.cur; ok is false past the path's end.
+func (r *transientRef) eval(tau float64) (s, T, ds, dT float64, ok bool) {
+	n := len(r.tau)
+	if tau > r.tau[n-1] {
+		return 0, 0, 0, 0, false
+	}
+	j := r.cur
+	if j < 0 || j >= n-1 || tau < r.tau[j] {
+		j = 0
+	}
+	for j < n-2 && tau > r.tau[j+1] {
+		j++
+	}
+	r.cur = j
+	h := r.tau[j+1] - r.tau[j]
+	x := (tau - r.tau[j]) / h
+	s, ds = hermiteSlope(x, h, r.s[j], r.s[j+1], r.ds[j], r.ds[j+1])
+	T, dT = hermiteSlope(x, h, r.T[j], r.T[j+1], r.dT[j], r.dT[j+1])
+	return s, T, ds, dT, true
+}
+
+// hermiteSlope returns hermite's value and its slope dy/dt (per unit of
+// the step's variable, not of x).
+func hermiteSlope(x, h, y0, y1, d0, d1 float64) (float64, float64) {
+	x2 := x * x
+	y := hermite(x, h, y0, y1, d0, d1)
+	dy := ((6*x2-6*x)*(y0-y1))/h + (3*x2-4*x+1)*d0 + (3*x2-2*x)*d1
+	return y, dy
+}
+
+// lagrangeWeights returns the weights of the Lagrange polynomial through
+// the nodes xs evaluated at x.
+func lagrangeWeights(xs []float64, x float64, w []float64) []float64 {
+	w = w[:0]
+	for a := range xs {
+		l := 1.0
+		for b := range xs {
+			if b != a {
+				l *= (x - xs[b]) / (xs[a] - xs[b])
+			}
+		}
+		w = append(w, l)
+	}
+	return w
+}
+
+// newTransientRef integrates bin i as a reference; ok is false when it
+// does not join the table (evaporates first, grows past it, or does not
+// settle before the horizon), and the caller then stores its path as
+// it is: integrateBin's result does not depend on the extension.
+func (sp *sprayPaths) newTransientRef(i int, tInj, horizon float64) (*transientRef, *transientPath, float64, bool, error) {
+	ext := &pathExtension{steps: interpExtraSteps}
+	p, tEnd, joined, err := sp.integrateBin(i, tInj, horizon, nil, ext)
+	if err != nil || !joined {
+		return nil, p, tEnd, joined, err
+	}
+	d0 := sp.d0[i]
+	d2 := d0 * d0
+	r := &transientRef{bin: i, u: math.Log(d0), join: len(p.t) - 1,
+		tau: make([]float64, len(ext.t)), s: ext.s, T: ext.T,
+		ds: make([]float64, len(ext.t)), dT: make([]float64, len(ext.t))}
+	for k := range ext.t {
+		r.tau[k] = ext.t[k] / d2
+		r.ds[k] = ext.ds[k] * d2
+		r.dT[k] = ext.dT[k] * d2
+	}
+	return r, p, tEnd, true, nil
+}
+
+// interpolatedPath builds bin i's heating path from the references
+// stencil (at most four, in increasing ln d0), whose member near is the
+// nearest to bin i. The bin joins the table at τ_J, the Lagrange
+// interpolation in ln d0 of the references' join times (each where its
+// heat balance settled, found within its step, so smooth in d0); its nodes
+// are near's steps before τ_J and τ_J itself, its values and slopes the
+// Lagrange interpolation of the references' at the same τ (their cubic
+// Hermite interpolants, extended past their joins). ok is false when a
+// reference does not reach τ_J or the bin would join above the table; the
+// bin is then integrated on its own.
+func (sp *sprayPaths) interpolatedPath(i int, stencil []*transientRef, near *transientRef, rhoInj float64) (*transientPath, float64, bool) {
+	d0 := sp.d0[i]
+	d2 := d0 * d0
+	var xs [4]float64
+	for a, r := range stencil {
+		xs[a] = r.u
+		r.cur = 0
+	}
+	var wb [4]float64
+	w := lagrangeWeights(xs[:len(stencil)], math.Log(d0), wb[:0])
+	tauJ := 0.0
+	for a, r := range stencil {
+		tauJ += w[a] * r.tau[r.join]
+	}
+	k := 0
+	for k < len(near.tau) && near.tau[k] < tauJ {
+		k++
+	}
+	p := &transientPath{c: sp.c, m0: rhoInj * math.Pi * d0 * d0 * d0 / 6}
+	p.t, p.s, p.T = make([]float64, k+1), make([]float64, k+1), make([]float64, k+1)
+	p.ds, p.dT = make([]float64, k+1), make([]float64, k+1)
+	for j := 0; j <= k; j++ {
+		tau := tauJ
+		if j < k {
+			tau = near.tau[j]
+		}
+		var s, T, ds, dT float64
+		for a, r := range stencil {
+			rs, rT, rds, rdT, ok := r.eval(tau)
+			if r == near && j < k {
+				rs, rT, rds, rdT, ok = r.s[j], r.T[j], r.ds[j], r.dT[j], true
+			}
+			if !ok {
+				return nil, 0, false
+			}
+			s += w[a] * rs
+			T += w[a] * rT
+			ds += w[a] * rds
+			dT += w[a] * rdT
+		}
+		if !(s > 1e-6) {
+			return nil, 0, false
+		}
+		p.t[j], p.s[j], p.T[j], p.ds[j], p.dT[j] = tau*d2, s, T, ds/d2, dT/d2
+	}
+	s, T := p.s[k], p.T[k]
+	p.lastFrc = s * math.Sqrt(s)
+	p.lastD = p.diameter(s, T)
+	if math.Log(p.lastD) > sp.table.u[len(sp.table.u)-1] {
+		return nil, 0, false
+	}
+	return p, p.t[k], true
+}
+
+// binLife is a joined bin's state at time t: its heating path before
+// tJoin, the table from its joining diameter after (see sprayPaths.state).
+func (sp *sprayPaths) binLife(p *transientPath, tJoin, g0, t float64, cur *int) (float64, float64) {
+	if t < tJoin {
+		return p.at(t)
+	}
+	if t == tJoin {
+		return p.lastD, p.lastFrc
+	}
+	d := sp.table.diameter(g0-(t-tJoin), cur)
+	r := d / p.lastD
+	return d, p.lastFrc * r * r * r
+}
+
+// interpError is the difference between bin i's interpolated path pi
+// (joined at ti) and its integrated path pd (joined at td) that matters
+// downstream: the largest absolute difference of the remaining mass
+// fraction and of d/d0 at both paths' nodes and midway between them, of
+// the remaining mass fraction at 24 times from the later join to the end
+// of the shorter life, and the relative difference of the lifetimes.
+// After the join d/d0 is held through the lifetime: near the end of life
+// it changes as the square root of the time left, which magnifies any
+// lifetime difference without bound.
+func (sp *sprayPaths) interpError(i int, pi *transientPath, ti float64, pd *transientPath, td float64) float64 {
+	gi, gd := sp.table.evaporationTime(pi.lastD), sp.table.evaporationTime(pd.lastD)
+	li, ld := ti+gi, td+gd
+	worst := math.Abs(li/ld - 1)
+	d0 := sp.d0[i]
+	ci, cd := -1, -1
+	tBoth := math.Max(ti, td)
+	cmp := func(t float64) {
+		di, fi := sp.binLife(pi, ti, gi, t, &ci)
+		dd, fd := sp.binLife(pd, td, gd, t, &cd)
+		worst = math.Max(worst, math.Abs(fi-fd))
+		if t <= tBoth {
+			worst = math.Max(worst, math.Abs(di-dd)/d0)
+		}
+	}
+	for _, p := range []*transientPath{pi, pd} {
+		ci, cd = -1, -1
+		for k := 1; k < len(p.t); k++ {
+			cmp(0.5 * (p.t[k-1] + p.t[k]))
+			cmp(p.t[k])
+		}
+	}
+	t1 := math.Min(li, ld)
+	ci, cd = -1, -1
+	for k := 1; k <= 24 && t1 > tBoth; k++ {
+		cmp(tBoth + (t1-tBoth)*float64(k)/25)
+	}
+	return worst
+}
+
+// interpTransient gives every bin a heating path from references
+// integrated in ln d0 (see interpolatedPath): five references spread
+// evenly in ln d0 (the smallest and the largest bin among them), then
+// each interval between neighbouring references is checked at its
+// middle bin, which is integrated and becomes a reference; an interval
+// whose check misses interpTransientTol is split and both halves are
+// checked in turn. It reports false, with every integrated reference
+// stored as the per-bin integration would store it, when a reference does
+// not join the table; the caller integrates the other bins on their own.
+func (sp *sprayPaths) interpTransient(tInj, horizon float64) (bool, error) {
+	n := len(sp.d0)
+	rhoInj := sp.c.Liquid.Density(tInj)
+	u0, u1 := math.Log(sp.d0[0]), math.Log(sp.d0[n-1])
+	refs := make([]*transientRef, 0, 16) // in increasing bin
+	failed := false
+	add := func(i int) (*transientRef, *transientPath, float64, error) {
+		if err := sp.stopped(); err != nil {
+			return nil, nil, 0, err
+		}
+		r, p, tEnd, joined, err := sp.newTransientRef(i, tInj, horizon)
+		if err != nil {
+			return nil, nil, 0, err
+		}
+		sp.setTransient(i, p, tEnd, joined)
+		if r == nil {
+			failed = true
+			return nil, p, tEnd, nil
+		}
+		at := len(refs)
+		for at > 0 && refs[at-1].bin > i {
+			at--
+		}
+		refs = append(refs, nil)
+		copy(refs[at+1:], refs[at:])
+		refs[at] = r
+		return r, p, tEnd, nil
+	}
+	// nearestBin returns the bin in (a, b) nearest to ln d0 = u.
+	nearestBin := func(a, b int, u float64) int {
+		m := a + 1
+		for k := a + 2; k < b; k++ {
+			if math.Abs(math.Log(sp.d0[k])-u) < math.Abs(math.Log(sp.d0[m])-u) {
+				m = k
+			}
+		}
+		return m
+	}
+	const first = 5
+	prev := -1
+	for k := 0; k < first; k++ {
+		i := n - 1
+		if k < first-1 {
+			i = nearestBin(prev, n, u0+(u1-u0)*float64(k)/(first-1))
+		}
+		if i <= prev {
+			continue
+		}
+		if _, _, _, err := add(i); err != nil || failed {
+			return false, err
+		}
+		prev = i
+	}
+	// stencil returns the (up to four) references around the interval
+	// between refs[j] and refs[j+1], and the one of those two nearest to u.
+	stencil := func(j int, u float64) ([]*transientRef, *transientRef) {
+		lo, hi := max(0, j-1), min(len(refs)-1, j+2)
+		for hi-lo < 3 && (lo > 0 || hi < len(refs)-1) {
+			if lo > 0 {
+				lo--
+			} else {
+				hi++
+			}
+		}
+		near := refs[j]
+		if u-refs[j].u > refs[j+1].u-u {
+			near = refs[j+1]
+		}
+		return refs[lo : hi+1 : hi+1], near
+	}
+	refIndex := func(bin int) int {
+		for j, r := range refs {
+			if r.bin == bin {
+				return j
+			}
+		}
+		return -1
+	}
+	type interval struct{ a, b int } // bins of two neighbouring references
+	var todo []interval
+	for j := 0; j+1 < len(refs); j++ {
+		if refs[j+1].bin-refs[j].bin > 1 {
+			todo = append(todo, interval{refs[j].bin, refs[j+1].bin})
+		}
+	}
+	for len(todo) > 0 {
+		iv := todo[len(todo)-1]
+		todo = todo[:len(todo)-1]
+		m := nearestBin(iv.a, iv.b, 0.5*(math.Log(sp.d0[iv.a])+math.Log(sp.d0[iv.b])))
+		st, near := stencil(refIndex(iv.a), math.Log(sp.d0[m]))
+		pi, ti, ok := sp.interpolatedPath(m, st, near, rhoInj)
+		_, pd, td, err := add(m)
+		if err != nil || failed {
+			return false, err
+		}
+		if ok && sp.interpError(m, pi, ti, pd, td) <= interpTransientTol {
+			continue
+		}
+		for _, h := range []interval{{iv.a, m}, {m, iv.b}} {
+			if h.b-h.a > 1 {
+				todo = append(todo, h)
+			}
+		}
+	}
+	for j := 0; j+1 < len(refs); j++ {
+		for i := refs[j].bin + 1; i < refs[j+1].bin; i++ {
+			if err := sp.stopped(); err != nil {
+				return true, err
+			}
+			st, near := stencil(j, math.Log(sp.d0[i]))
+			p, tEnd, ok := sp.interpolatedPath(i, st, near, rhoInj)
+			if !ok {
+				var err error
+				if p, tEnd, ok, err = sp.integrateBin(i, tInj, horizon, nil, nil); err != nil {
+					return true, err
+				}
+			}
+			sp.setTransient(i, p, tEnd, ok)
+		}
+	}
 	return true, nil
 }
