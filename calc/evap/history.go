@@ -276,6 +276,7 @@ type sprayPaths struct {
 	scale        []float64 // remaining mass fraction when it joins
 	dJoin        []float64
 	tr           []*transientPath
+	trCur        []int // step hints into tr for remaining
 	heldWeight   float64
 	shortestLife float64
 	cursor       []int
@@ -377,8 +378,9 @@ func (sp *sprayPaths) remaining(t float64) float64 {
 	for i := range sp.d0 {
 		var f float64
 		if sp.tr != nil && sp.tr[i] != nil && t < sp.join[i] {
-			// state's transient branch, without the diameter.
-			f = sp.tr[i].fraction(t)
+			// state's transient branch, without the diameter; the
+			// scan's times increase, so each path's step is walked.
+			f = sp.tr[i].fraction(t, &sp.trCur[i])
 		} else {
 			// Each bin keeps its table cursor between calls: the root
 			// search's times close in, so the hint mostly holds.

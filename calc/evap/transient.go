@@ -47,8 +47,22 @@ func (p *transientPath) atFrom(t float64, cur *int) (float64, float64) {
 	if t >= p.t[n-1] {
 		return p.at(t)
 	}
+	j := p.step(t, cur)
+	h := p.t[j+1] - p.t[j]
+	x := (t - p.t[j]) / h
+	s := math.Max(0, hermite(x, h, p.s[j], p.s[j+1], p.ds[j], p.ds[j+1]))
+	T := hermite(x, h, p.T[j], p.T[j+1], p.dT[j], p.dT[j+1])
+	return p.diameter(s, T), s * math.Sqrt(s)
+}
+
+// step returns the step j with t[j] < t ≤ t[j+1] for t < t[n−1] (j = 0
+// for t ≤ t[0]), walking forward from *cur when t lies at or above its
+// step, else by bisection; *cur is updated. A node time gives the node's
+// values from either neighbouring step, so the walk and the bisection
+// agree.
+func (p *transientPath) step(t float64, cur *int) int {
 	j := *cur
-	if j < 0 || j >= n-1 || t < p.t[j] {
+	if j < 0 || j >= len(p.t)-1 || t < p.t[j] {
 		j = sort.SearchFloat64s(p.t, t)
 		if j > 0 {
 			j--
@@ -58,11 +72,7 @@ func (p *transientPath) atFrom(t float64, cur *int) (float64, float64) {
 		j++
 	}
 	*cur = j
-	h := p.t[j+1] - p.t[j]
-	x := (t - p.t[j]) / h
-	s := math.Max(0, hermite(x, h, p.s[j], p.s[j+1], p.ds[j], p.ds[j+1]))
-	T := hermite(x, h, p.T[j], p.T[j+1], p.dT[j], p.dT[j+1])
-	return p.diameter(s, T), s * math.Sqrt(s)
+	return j
 }
 
 // hermite is the cubic Hermite interpolant at x ∈ [0, 1] of a step of
@@ -74,8 +84,9 @@ func hermite(x, h, y0, y1, d0, d1 float64) float64 {
 
 // fraction returns the remaining mass fraction at time t, the second
 // result of at without the diameter (no liquid density, no cube root):
-// the remaining-mass sums of the t50/t90/t99 search need no more.
-func (p *transientPath) fraction(t float64) float64 {
+// the remaining-mass sums of the t50/t90/t99 search need no more;
+// *cur is a step hint as for atFrom.
+func (p *transientPath) fraction(t float64, cur *int) float64 {
 	n := len(p.t)
 	if t >= p.t[n-1] {
 		if p.gone {
@@ -83,10 +94,7 @@ func (p *transientPath) fraction(t float64) float64 {
 		}
 		return p.lastFrc
 	}
-	j := sort.SearchFloat64s(p.t, t)
-	if j > 0 {
-		j--
-	}
+	j := p.step(t, cur)
 	h := p.t[j+1] - p.t[j]
 	x := (t - p.t[j]) / h
 	s := math.Max(0, hermite(x, h, p.s[j], p.s[j+1], p.ds[j], p.ds[j+1]))
@@ -130,6 +138,10 @@ func (sp *sprayPaths) addTransient(tInj, maxTime float64) error {
 		horizon = 20 * longest
 	}
 	sp.tr = make([]*transientPath, len(sp.d0))
+	sp.trCur = make([]int, len(sp.d0))
+	for i := range sp.trCur {
+		sp.trCur[i] = -1
+	}
 	sp.integrated = 0
 	sp.heldWeight, sp.shortestLife = 0, math.Inf(1)
 	if !sp.directTransient && c.similarTransient() && len(sp.d0) > 1 {

@@ -157,13 +157,14 @@ func TestTransientFractionMatchesAt(t *testing.T) {
 		}
 		for _, p := range s.sp.tr {
 			n := len(p.t)
+			cur := -1 // one hint for all: random times walk it forward or bisect
 			for k := 0; k < 3000; k++ {
 				x := p.t[n-1] * 1.1 * rng.Float64()
 				if k%4 == 0 {
 					x = p.t[rng.IntN(n)]
 				}
 				_, want := p.at(x)
-				if got := p.fraction(x); got != want {
+				if got := p.fraction(x, &cur); got != want {
 					t.Fatalf("t=%g: fraction %v, at %v", x, got, want)
 				}
 				checked++
