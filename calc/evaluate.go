@@ -480,18 +480,18 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 	}
 	n := b.Len()
 	res.Bins = make([]BinResult, n)
+	// Each class's state at the fixed or its steady temperature; the
+	// sweep checks the conditions once and shares the liquid's properties.
+	states, err := cond.NewStateSweep(fixedT)
+	if err != nil {
+		return nil, evaluationError(err, b.Diameter(0))
+	}
 	for i := range n {
 		if err := ctx.Err(); err != nil {
 			return nil, canceled(err)
 		}
 		d := b.Diameter(i)
-		var st evap.DropState
-		var err error
-		if fixedT > 0 {
-			st, err = cond.Drop(d, fixedT)
-		} else {
-			st, err = cond.SteadyState(d)
-		}
+		st, err := states.State(d)
 		if err != nil {
 			return nil, evaluationError(err, d)
 		}

@@ -306,21 +306,35 @@ func (c *Conditions) Drop(d, Ts float64) (DropState, error) {
 	if err := valid.Positive("drop.diameter_m", d); err != nil {
 		return DropState{}, err
 	}
-	if err := valid.Positive("drop.surface_temperature_k", Ts); err != nil {
+	if err := c.checkSurfaceTemperature(Ts); err != nil {
 		return DropState{}, err
 	}
-	if ps := c.Liquid.SaturationPressure(Ts); ps >= c.Pressure {
-		return DropState{}, valid.Errorf("drop.surface_temperature_k", Ts,
+	var liq liquidAt // the curved and flat states share the liquid properties
+	return c.dropAt(d, Ts, &liq)
+}
+
+// checkSurfaceTemperature refuses a surface temperature that is not
+// positive or at which the liquid boils at the gas pressure.
+func (c *Conditions) checkSurfaceTemperature(ts float64) error {
+	if err := valid.Positive("drop.surface_temperature_k", ts); err != nil {
+		return err
+	}
+	if ps := c.Liquid.SaturationPressure(ts); ps >= c.Pressure {
+		return valid.Errorf("drop.surface_temperature_k", ts,
 			"is at or above the boiling point at the gas pressure (p_sat = %s Pa ≥ %s Pa)", valid.FormatValue(ps), valid.FormatValue(c.Pressure))
 	}
-	var liq liquidAt // the curved and flat states share the liquid properties
-	e, err := c.evaluateAt(d, Ts, c.Curvature, &liq)
+	return nil
+}
+
+// dropAt is Drop after its checks, with the liquid-property cache liq.
+func (c *Conditions) dropAt(d, Ts float64, liq *liquidAt) (DropState, error) {
+	e, err := c.evaluateAt(d, Ts, c.Curvature, liq)
 	if err != nil {
 		return DropState{}, err
 	}
 	enh := 1.0
 	if c.Curvature {
-		flat, err := c.evaluateAt(d, Ts, false, &liq)
+		flat, err := c.evaluateAt(d, Ts, false, liq)
 		if err != nil {
 			return DropState{}, err
 		}

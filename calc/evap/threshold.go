@@ -37,6 +37,10 @@ func (c *Conditions) EnhancementThreshold(level, Ts float64) (float64, error) {
 	cc.Curvature = true
 	guess := 0.0
 	var solveErr error
+	// The liquid's properties depend on T alone: with a fixed T every
+	// evaluation of the search shares them, with the steady T the flat
+	// evaluation shares the curved one's.
+	var liq liquidAt
 	excess := func(lnD float64) float64 {
 		d := math.Exp(lnD)
 		t := Ts
@@ -48,12 +52,12 @@ func (c *Conditions) EnhancementThreshold(level, Ts float64) (float64, error) {
 			}
 			guess = t
 		}
-		curved, err := cc.evaluate(d, t, true)
+		curved, err := cc.evaluateAt(d, t, true, &liq)
 		if err != nil {
 			solveErr = err
 			return math.NaN()
 		}
-		flat, err := cc.evaluate(d, t, false)
+		flat, err := cc.evaluateAt(d, t, false, &liq)
 		if err != nil {
 			solveErr = err
 			return math.NaN()

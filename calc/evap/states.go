@@ -1,0 +1,70 @@
+package evap
+
+import (
+	"errors"
+	"math"
+
+	"fogbench/calc/valid"
+)
+
+// StateSweep evaluates drop states at many diameters under one set of
+// conditions, as a spray's size classes need: State(d) returns exactly what
+// Drop(d, Ts) returns for a fixed surface temperature Ts > 0, or
+// SteadyState(d) for Ts = 0 (the same numbers, bit for bit:
+// TestStateSweepMatchesDropAndSteadyState), but the conditions are checked
+// and the boiling point found once, and diameters at the same surface
+// temperature share the liquid's properties, which depend on T alone.
+// A StateSweep is not safe for concurrent use.
+type StateSweep struct {
+	c   *Conditions
+	ts  float64
+	tb  float64  // boiling point at the gas pressure, for the steady temperature
+	liq liquidAt // liquid properties at the last surface temperature
+}
+
+// NewStateSweep checks the conditions and the surface temperature Ts (K;
+// zero for each diameter's steady temperature) as Drop and SteadyState do.
+func (c *Conditions) NewStateSweep(ts float64) (*StateSweep, error) {
+	if err := c.Validate(); err != nil {
+		return nil, err
+	}
+	s := &StateSweep{c: c, ts: ts}
+	if ts != 0 {
+		if err := c.checkSurfaceTemperature(ts); err != nil {
+			return nil, err
+		}
+		return s, nil
+	}
+	tb, _, err := c.boilingTemperature()
+	if err != nil {
+		return nil, err
+	}
+	s.tb = tb
+	return s, nil
+}
+
+// State returns the drop state at diameter d (m); see StateSweep.
+func (s *StateSweep) State(d float64) (DropState, error) {
+	if err := valid.Positive("drop.diameter_m", d); err != nil {
+		return DropState{}, err
+	}
+	if s.ts != 0 {
+		return s.c.dropAt(d, s.ts, &s.liq)
+	}
+	ts, err := s.c.steadyTemperature(d, s.tb, 0)
+	var warn string
+	if errors.Is(err, ErrBoiling) {
+		warn = err.Error()
+		ts = math.Nextafter(ts, 0)
+	} else if err != nil {
+		return DropState{}, err
+	}
+	var st DropState
+	if err = s.c.checkSurfaceTemperature(ts); err == nil {
+		st, err = s.c.dropAt(d, ts, &s.liq)
+	}
+	if warn != "" {
+		st.Warnings = append(st.Warnings, warn)
+	}
+	return st, err
+}
