@@ -17,14 +17,25 @@ var updateSubcooled = flag.Bool("update-subcooled", false, "rewrite testdata/fla
 
 const subcooledGolden = "../testdata/flash/subcooled_golden.json"
 
+// steadyGoldenTol is the golden's tolerance on what follows from a solved
+// steady surface temperature. A class's steady temperature is accepted at
+// a heat-balance residual of 1e-11 ṁL (secant steps from the previous
+// class) or at Brent's 1e-12 of T (the bracketing solve); either leaves a
+// few 1e-11 in the rate and the states (evap's TestStateSweepMatchesDropAndSteadyState
+// measures 7.7e-11 between the two), so a solver change moves them by that
+// much; 1e-9 is well above it and far below any change of the physics.
+const steadyGoldenTol = 1e-9
+
 // The superheat path must leave subcooled cases alone. The golden file
 // holds `fogbench eval testdata/flash/subcooled_cases.json` as written
 // before calc/superheat.go existed (same cases: steady water, heptane at a
 // fixed 330 K, transient decane, water in supersaturated air). Every value
-// there must come back unchanged (rel 1e-12; lifetimes, evaporated-mass
-// times and the history, which are quadratures others may refine, rel
-// 1e-4); the only keys allowed to be new are "grows" (per class,
-// supersaturated surroundings only). After a
+// there must come back unchanged (rel 1e-12; per-class states and the
+// property and curvature summaries, which follow from solved steady
+// temperatures, rel steadyGoldenTol; lifetimes, evaporated-mass times and
+// the history, which are quadratures others may refine, rel 1e-4); the
+// only keys allowed to be new are "grows" (per class, supersaturated
+// surroundings only). After a
 // deliberate change to the evaporation results, regenerate with
 // `go test ./calc -run SubcooledUnchanged -update-subcooled` and review
 // the diff.
@@ -130,6 +141,9 @@ func compareJSON(path string, want, got any, diffs *[]string) {
 		}
 	case float64:
 		tol := 1e-12
+		if strings.Contains(path, "/bins/") || strings.Contains(path, "/properties/") || strings.Contains(path, "/curvature/") {
+			tol = steadyGoldenTol
+		}
 		if strings.HasSuffix(path, "/lifetime_s") || strings.Contains(path, "/history/") ||
 			strings.HasSuffix(path, "/t50_s") || strings.HasSuffix(path, "/t90_s") || strings.HasSuffix(path, "/t99_s") {
 			tol = 1e-4

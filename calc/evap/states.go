@@ -16,10 +16,11 @@ import (
 // temperature share the liquid's properties, which depend on T alone.
 // A StateSweep is not safe for concurrent use.
 type StateSweep struct {
-	c   *Conditions
-	ts  float64
-	tb  float64  // boiling point at the gas pressure, for the steady temperature
-	liq liquidAt // liquid properties at the last surface temperature
+	c     *Conditions
+	ts    float64
+	tb    float64  // boiling point at the gas pressure, for the steady temperature
+	liq   liquidAt // liquid properties at the last surface temperature
+	guess float64  // the last steady temperature solved, K (0: none)
 }
 
 // NewStateSweep checks the conditions and the surface temperature Ts (K;
@@ -51,13 +52,29 @@ func (s *StateSweep) State(d float64) (DropState, error) {
 	if s.ts != 0 {
 		return s.c.dropAt(d, s.ts, &s.liq)
 	}
-	ts, err := s.c.steadyTemperature(d, s.tb, 0)
+	// From the previous diameter's steady temperature, secant steps
+	// (steadyNear) need two or three heat balances where the bracketing
+	// solve needs about ten; they accept only a residual that bounds the
+	// rate's error as Brent's tolerance does, and fall back to the
+	// bracketing solve, which also reports boiling.
+	var ts float64
+	var err error
+	ok := false
+	if s.guess > 0 && d >= minSteadyDiameter {
+		ts, _, ok = s.c.steadyNear(d, s.tb, s.guess, &s.liq)
+	}
+	if !ok {
+		ts, err = s.c.steadyTemperature(d, s.tb, 0)
+	}
 	var warn string
 	if errors.Is(err, ErrBoiling) {
 		warn = err.Error()
 		ts = math.Nextafter(ts, 0)
+		s.guess = 0
 	} else if err != nil {
 		return DropState{}, err
+	} else {
+		s.guess = ts
 	}
 	var st DropState
 	if err = s.c.checkSurfaceTemperature(ts); err == nil {
