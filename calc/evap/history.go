@@ -564,13 +564,20 @@ func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) error {
 }
 
 // volumeMedian returns the diameter below which half of the volume vol
-// (of total v) lies, treating each bin as a point at d with the cumulative
-// volume at bin i taken at its midpoint; bins are in increasing d.
+// (of total v) lies; see volumeQuantile.
 func volumeMedian(d, vol []float64, v float64) float64 {
+	return volumeQuantile(d, vol, v, 0.5)
+}
+
+// volumeQuantile returns the diameter below which the fraction q of the
+// volume vol (of total v) lies, treating each bin as a point at d with the
+// cumulative volume at bin i taken at its midpoint and interpolating
+// linearly in d; bins are in increasing d. q is clamped to [0, 1].
+func volumeQuantile(d, vol []float64, v, q float64) float64 {
 	if !(v > 0) {
 		return 0
 	}
-	half := 0.5 * v
+	at := math.Min(1, math.Max(0, q)) * v
 	cum := 0.0
 	prevD, prevC := 0.0, -1.0
 	for i := range d {
@@ -578,11 +585,11 @@ func volumeMedian(d, vol []float64, v float64) float64 {
 			continue
 		}
 		c := cum + 0.5*vol[i]
-		if c >= half {
+		if c >= at {
 			if prevC < 0 {
 				return d[i]
 			}
-			return prevD + (d[i]-prevD)*(half-prevC)/(c-prevC)
+			return prevD + (d[i]-prevD)*(at-prevC)/(c-prevC)
 		}
 		prevD, prevC = d[i], c
 		cum += vol[i]

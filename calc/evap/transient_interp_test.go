@@ -181,29 +181,6 @@ func relDiff(a, b float64) float64 {
 	return math.Abs(a-b) / math.Max(math.Abs(a), math.Abs(b))
 }
 
-// volumeQuantile is volumeMedian for the cumulative fraction q.
-func volumeQuantile(d, vol []float64, v, q float64) float64 {
-	q = math.Min(1, math.Max(0, q))
-	at := q * v
-	cum := 0.0
-	prevD, prevC := 0.0, -1.0
-	for i := range d {
-		if vol[i] <= 0 {
-			continue
-		}
-		c := cum + 0.5*vol[i]
-		if c >= at {
-			if prevC < 0 {
-				return d[i]
-			}
-			return prevD + (d[i]-prevD)*(at-prevC)/(c-prevC)
-		}
-		prevD, prevC = d[i], c
-		cum += vol[i]
-	}
-	return prevD
-}
-
 // atFrom, walking a cursor, is at bit for bit on increasing times (the
 // sweep's order), on stored steps, and after a jump back.
 func TestTransientAtFromMatchesAt(t *testing.T) {
