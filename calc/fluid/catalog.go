@@ -81,6 +81,7 @@ func newWater() *Liquid {
 		"IAPWS R12-08 eq. 11", 273.16, 1173.15, waterDiluteViscosity}
 	l.kVapor = correlation{"vapor thermal conductivity", "IAPWS 2011 conductivity, dilute-gas term lambda0",
 		"IAPWS R15-11 eq. 16", 273.16, 1173.15, waterDiluteConductivity}
+	l.vaporFilm = waterVaporFilm
 	return l
 }
 

@@ -94,6 +94,10 @@ type filmPure struct {
 	phiVG, phiGV, diff         float64
 	inP, inTs, inTinf          float64 // the arguments it was made for
 	set                        bool
+	// The pair constants of Diffusivity, kept across calls for one pair.
+	fl  fuller
+	fl1 *Liquid
+	flg *Gas
 }
 
 // at fills pc for p, Ts, Tinf as FilmProperties takes them (held to the
@@ -105,12 +109,21 @@ func (pc *filmPure) at(l *Liquid, g *Gas, p, Ts, Tinf float64) {
 	Tinf = positiveOr(Tinf, 1e-3)
 	tr := Ts + (Tinf-Ts)/3
 	pc.p, pc.tr, pc.mv, pc.mg = p, tr, l.molarMass, g.molarMass
-	pc.cpv, pc.cpg = l.VaporHeatCapacity(tr), g.HeatCapacity(tr)
-	pc.muv, pc.mug = l.VaporViscosity(tr), g.Viscosity(tr)
-	pc.kv, pc.kg = l.VaporConductivity(tr), g.Conductivity(tr)
+	// The same numbers as VaporHeatCapacity, HeatCapacity, VaporViscosity,
+	// Viscosity, VaporConductivity, Conductivity and Diffusivity at tr, with
+	// the work they share done once (TestFilmPureMatchesPublicFunctions).
+	pc.cpv, pc.muv, pc.kv = l.vaporProps(tr)
+	pc.cpg, pc.mug, pc.kg = g.filmProps(tr)
 	pc.phiVG = wilkePhi(pc.muv, pc.mug, pc.mv, pc.mg)
 	pc.phiGV = wilkePhi(pc.mug, pc.muv, pc.mg, pc.mv)
-	pc.diff = Diffusivity(l, g, tr, p)
+	if pc.fl1 != l || pc.flg != g {
+		pc.fl, pc.fl1, pc.flg = fullerPair(l, g), l, g
+	}
+	if tr > 0 && p > 0 && !math.IsInf(tr, 0) && !math.IsInf(p, 0) {
+		pc.diff = pc.fl.at(tr, p)
+	} else {
+		pc.diff = 0
+	}
 }
 
 // mix is the mixing step of FilmProperties at the vapor mass fractions Ys

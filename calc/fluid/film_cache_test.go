@@ -75,3 +75,55 @@ func BenchmarkFilm(b *testing.B) {
 }
 
 var sinkFilm Film
+
+// filmTemperatures are 64 seeded surface temperatures in [lo, hi], the
+// changing Ts of a steady-temperature solve.
+func filmTemperatures(lo, hi float64) []float64 {
+	rng := rand.New(rand.NewPCG(3, 5))
+	ts := make([]float64, 64)
+	for i := range ts {
+		ts[i] = lo + rng.Float64()*(hi-lo)
+	}
+	return ts
+}
+
+// BenchmarkFilmPure is filmPure.at, the pure-component part of the film,
+// at a new surface temperature every call (what a steady-temperature solve
+// asks), per liquid in air.
+func BenchmarkFilmPure(b *testing.B) {
+	air, _ := LookupGas("air")
+	for _, id := range []string{"water", "n-heptane"} {
+		l, _ := Lookup(id)
+		ts := filmTemperatures(l.tmelt+5, l.tb-5)
+		b.Run(id+"/new-Ts", func(b *testing.B) {
+			var pc filmPure
+			b.ReportAllocs()
+			i := 0
+			for b.Loop() {
+				pc.at(l, air, 101325, ts[i&63], 400)
+				i++
+			}
+			sinkFilm.T = pc.kg + pc.diff
+		})
+	}
+}
+
+// BenchmarkSurfaceProperties is the latent heat and surface tension that a
+// rate evaluation asks at each new surface temperature, per liquid.
+func BenchmarkSurfaceProperties(b *testing.B) {
+	for _, id := range []string{"water", "n-heptane"} {
+		l, _ := Lookup(id)
+		ts := filmTemperatures(l.tmelt+5, l.tb-5)
+		b.Run(id+"/new-Ts", func(b *testing.B) {
+			b.ReportAllocs()
+			var s float64
+			i := 0
+			for b.Loop() {
+				T := ts[i&63]
+				s += l.LatentHeat(T) + l.SurfaceTension(T)
+				i++
+			}
+			sinkFilm.T = s
+		})
+	}
+}

@@ -110,13 +110,15 @@ func jasper(a, b float64) func(float64) float64 {
 }
 
 // mulero is the surface-tension form of Mulero, Cachadina & Parra (2012),
-// sigma [N/m] = sum_i s_i (1 - T/Tc)^n_i.
+// sigma [N/m] = sum_i s_i (1 - T/Tc)^n_i. The powers share one logarithm
+// of tau (powFromLog gives math.Pow's bits).
 func mulero(tc float64, s, n []float64) func(float64) float64 {
 	return func(T float64) float64 {
 		tau := math.Max(1-T/tc, 0)
+		lt := math.Log(tau)
 		var sum float64
 		for i := range s {
-			sum += s[i] * math.Pow(tau, n[i])
+			sum += s[i] * powFromLog(tau, lt, n[i])
 		}
 		return math.Max(sum, 0)
 	}

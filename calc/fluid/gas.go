@@ -71,8 +71,25 @@ func (g *Gas) viscosityMicro(T float64) float64 {
 // N3 tau^t3, tau = Tc/T. T in K, W/(m K).
 func (g *Gas) Conductivity(T float64) float64 {
 	T = g.clamp(T)
+	return g.conductivityFrom(T, g.viscosityMicro(T))
+}
+
+// conductivityFrom is Conductivity at a held T with eta0 in uPa s already
+// known. The two powers of tau share one logarithm (powFromLog gives
+// math.Pow's bits).
+func (g *Gas) conductivityFrom(T, etaMicro float64) float64 {
 	tau := g.tcLJ / T
-	return (g.n1*g.viscosityMicro(T) + g.n2*math.Pow(tau, g.t2) + g.n3*math.Pow(tau, g.t3)) * 1e-3
+	lt := math.Log(tau)
+	return (g.n1*etaMicro + g.n2*powFromLog(tau, lt, g.t2) + g.n3*powFromLog(tau, lt, g.t3)) * 1e-3
+}
+
+// filmProps returns HeatCapacity, Viscosity and Conductivity at one T, the
+// same numbers bit for bit, with the viscosity evaluated once for both
+// transport properties.
+func (g *Gas) filmProps(T float64) (cp, mu, k float64) {
+	T = g.clamp(T)
+	eta := g.viscosityMicro(T)
+	return g.cp.eval(T), eta * 1e-6, g.conductivityFrom(T, eta)
 }
 
 // Density returns the ideal-gas density rho = p M/(R T) in kg/m3, T in K,

@@ -34,6 +34,11 @@ type Liquid struct {
 	psat, sigma, rho, mu, hvap, cp correlation
 	cpVapor, muVapor, kVapor       correlation
 
+	// vaporFilm, where set, returns cpVapor, muVapor and kVapor at one
+	// (held) T, the same numbers bit for bit, sharing the work they have
+	// in common.
+	vaporFilm func(T float64) (cp, mu, k float64)
+
 	// tsat is a published backward equation T_s(p), or nil.
 	tsat func(p float64) float64
 }
@@ -143,6 +148,16 @@ func (l *Liquid) VaporViscosity(T float64) float64 { return l.muVapor.eval(l.cla
 // VaporConductivity returns the low-pressure vapor thermal conductivity in
 // W/(m K).
 func (l *Liquid) VaporConductivity(T float64) float64 { return l.kVapor.eval(l.clampVapor(T)) }
+
+// vaporProps returns VaporHeatCapacity, VaporViscosity and
+// VaporConductivity at T, bit for bit, in one call for the film.
+func (l *Liquid) vaporProps(T float64) (cp, mu, k float64) {
+	T = l.clampVapor(T)
+	if l.vaporFilm != nil {
+		return l.vaporFilm(T)
+	}
+	return l.cpVapor.eval(T), l.muVapor.eval(T), l.kVapor.eval(T)
+}
 
 func (l *Liquid) liquidCorrelations() []*correlation {
 	return []*correlation{&l.psat, &l.sigma, &l.rho, &l.mu, &l.hvap, &l.cp}

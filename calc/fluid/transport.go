@@ -18,11 +18,23 @@ func Diffusivity(l *Liquid, g *Gas, T, p float64) float64 {
 	if !(T > 0) || !(p > 0) || math.IsInf(T, 0) || math.IsInf(p, 0) {
 		return 0
 	}
+	return fullerPair(l, g).at(T, p)
+}
+
+// fuller holds the parts of Diffusivity that depend only on the pair:
+// M_AB^(1/2) and (Sv_A)^(1/3) + (Sv_B)^(1/3).
+type fuller struct{ sqrtMab, s float64 }
+
+func fullerPair(l *Liquid, g *Gas) fuller {
 	mab := 2 / (1/(l.molarMass*1e3) + 1/(g.molarMass*1e3))
-	s := math.Cbrt(l.diffVolume) + math.Cbrt(g.diffVolume)
+	return fuller{math.Sqrt(mab), math.Cbrt(l.diffVolume) + math.Cbrt(g.diffVolume)}
+}
+
+// at is Diffusivity for positive finite T and p.
+func (f fuller) at(T, p float64) float64 {
 	r := math.Sqrt(T)
 	t175 := T * r * math.Sqrt(r) // T^1.75
-	return 1.43e-2 * t175 / (p * math.Sqrt(mab) * s * s)
+	return 1.43e-2 * t175 / (p * f.sqrtMab * f.s * f.s)
 }
 
 // MeanFreePath returns the gas-kinetic mean free path in m,

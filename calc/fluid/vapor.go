@@ -21,11 +21,21 @@ func neufeldOmega(tstar float64) float64 {
 // (M kg/mol, Vc m3/mol); the result is in Pa s. Poling et al. report errors of
 // 0.5-1.5 % for nonpolar gases at low pressure.
 func chungViscosity(T, tc, m, vc, omega, dipole, kappa float64) float64 {
+	return newChungViscosity(tc, m, vc, omega, dipole, kappa)(T)
+}
+
+// newChungViscosity returns chungViscosity as a function of T alone, with
+// the factors that depend only on the constants (Fc, Vc^(2/3)) computed
+// once; the numbers are chungViscosity's bit for bit.
+func newChungViscosity(tc, m, vc, omega, dipole, kappa float64) func(T float64) float64 {
 	mg := m * 1e3
 	vcc := vc * 1e6
 	mur := 131.3 * dipole / math.Sqrt(vcc*tc)
 	fc := 1 - 0.2756*omega + 0.059035*mur*mur*mur*mur + kappa
-	return 40.785 * fc * math.Sqrt(mg*T) / (math.Pow(vcc, 2.0/3) * neufeldOmega(1.2593*T/tc)) * 1e-7
+	vc23 := math.Pow(vcc, 2.0/3)
+	return func(T float64) float64 {
+		return 40.785 * fc * math.Sqrt(mg*T) / (vc23 * neufeldOmega(1.2593*T/tc)) * 1e-7
+	}
 }
 
 // chungConductivity is the dilute-gas thermal conductivity of Chung, Lee &
@@ -47,25 +57,31 @@ func chungConductivity(T, tc, m, omega, eta, cvMolar float64) float64 {
 
 // chungVapor fills the vapor viscosity and conductivity of l from its
 // constants and its ideal-gas cp correlation (already set), over the range of
-// that cp correlation: Chung et al. state no bound of their own.
+// that cp correlation: Chung et al. state no bound of their own. The
+// constants must be final when it is called.
 func chungVapor(l *Liquid) {
 	cp := l.cpVapor
 	lo, hi := cp.tmin, cp.tmax
+	mu := newChungViscosity(l.tc, l.molarMass, l.vc, l.omega, l.dipole, l.kappa)
+	tc, m, omega := l.tc, l.molarMass, l.omega
 	l.muVapor = correlation{
 		property: "vapor viscosity", method: "Chung et al. (1988) corresponding states",
 		reference: "Poling, Prausnitz & O'Connell 5th ed. eq. 9-4.10 (from memory)",
 		tmin:      lo, tmax: hi,
-		eval: func(T float64) float64 {
-			return chungViscosity(T, l.tc, l.molarMass, l.vc, l.omega, l.dipole, l.kappa)
-		},
+		eval: mu,
 	}
 	l.kVapor = correlation{
 		property: "vapor thermal conductivity", method: "Chung et al. (1984)",
 		reference: "Poling, Prausnitz & O'Connell 5th ed. eq. 10-3.14",
 		tmin:      lo, tmax: hi,
 		eval: func(T float64) float64 {
-			cvMolar := cp.eval(T)*l.molarMass - gasConstant
-			return chungConductivity(T, l.tc, l.molarMass, l.omega, l.muVapor.eval(T), cvMolar)
+			return chungConductivity(T, tc, m, omega, mu(T), cp.eval(T)*m-gasConstant)
 		},
+	}
+	// The film needs all three at one T: the conductivity reuses that cp
+	// and that viscosity.
+	l.vaporFilm = func(T float64) (float64, float64, float64) {
+		c, v := cp.eval(T), mu(T)
+		return c, v, chungConductivity(T, tc, m, omega, v, c*m-gasConstant)
 	}
 }

@@ -56,7 +56,9 @@ func waterSaturationTemperature(p float64) float64 {
 // water to 248.15 K).
 func waterSurfaceTension(T float64) float64 {
 	tau := math.Max(1-T/waterTc, 0)
-	return 235.8e-3 * math.Pow(tau, 1.256) * (1 - 0.625*tau)
+	// powFromLog is math.Pow bit for bit without its argument checks and
+	// exponent bookkeeping.
+	return 235.8e-3 * powFromLog(tau, math.Log(tau), 1.256) * (1 - 0.625*tau)
 }
 
 // IAPWS SR1-86(1992), Revised Supplementary Release on Saturation Properties
@@ -75,7 +77,11 @@ var (
 func waterSaturatedLiquidDensity(T float64) float64 {
 	// The integer powers 1, 2, 5, 16, 43, 110 of tau^(1/3) by products
 	// (math.Pow made this a sixth of a steady-temperature evaluation).
-	x := math.Cbrt(math.Max(1-T/waterTc, 0))
+	return sr86LiquidDensity(math.Cbrt(math.Max(1-T/waterTc, 0)))
+}
+
+// sr86LiquidDensity is eq. 2 of waterSaturatedLiquidDensity in x = tau^(1/3).
+func sr86LiquidDensity(x float64) float64 {
 	x2 := x * x
 	x4 := x2 * x2
 	x5 := x4 * x
@@ -93,8 +99,14 @@ func waterSaturatedLiquidDensity(T float64) float64 {
 // waterSaturatedVaporDensity is SR1-86(1992) eq. 3:
 // ln(rho”/rhoc) = sum c_i tau^(k_i/6), k = 2, 4, 8, 18, 37, 71. T in K, kg/m3.
 func waterSaturatedVaporDensity(T float64) float64 {
-	// The integer powers 2, 4, 8, 18, 37, 71 of tau^(1/6) by products.
-	x := math.Pow(math.Max(1-T/waterTc, 0), 1.0/6)
+	// The integer powers 2, 4, 8, 18, 37, 71 of tau^(1/6) by products, with
+	// tau^(1/6) = (tau^(1/3))^(1/2): a cube root and a square root cost less
+	// than math.Pow and agree with it to rounding (TestWaterSR86Forms).
+	return sr86VaporDensity(math.Sqrt(math.Cbrt(math.Max(1-T/waterTc, 0))))
+}
+
+// sr86VaporDensity is eq. 3 of waterSaturatedVaporDensity in x = tau^(1/6).
+func sr86VaporDensity(x float64) float64 {
 	x2 := x * x
 	x4 := x2 * x2
 	x8 := x4 * x4
@@ -115,7 +127,11 @@ func waterSaturationSlope(T float64) float64 {
 	// The powers 1, 1.5, 3, 3.5, 4, 7.5 of tau and their derivatives by
 	// products of tau and its square root.
 	tau := math.Max(1-T/waterTc, 0)
-	r := math.Sqrt(tau)
+	return sr86Slope(T, tau, math.Sqrt(tau))
+}
+
+// sr86Slope is waterSaturationSlope given tau = 1 - T/Tc and r = tau^(1/2).
+func sr86Slope(T, tau, r float64) float64 {
 	t2 := tau * tau
 	t3 := t2 * tau
 	t6 := t3 * t3
@@ -134,7 +150,12 @@ func waterLatentHeat(T float64) float64 {
 	if T >= waterTc {
 		return 0
 	}
-	return T * waterSaturationSlope(T) * (1/waterSaturatedVaporDensity(T) - 1/waterSaturatedLiquidDensity(T))
+	// The three equations share tau and its roots: tau^(1/2) for eq. 1,
+	// tau^(1/3) for eq. 2 and its square root tau^(1/6) for eq. 3, the
+	// same numbers as the three functions give one by one.
+	tau := math.Max(1-T/waterTc, 0)
+	c := math.Cbrt(tau)
+	return T * sr86Slope(T, tau, math.Sqrt(tau)) * (1/sr86VaporDensity(math.Sqrt(c)) - 1/sr86LiquidDensity(c))
 }
 
 // IAPWS R12-08, Release on the IAPWS Formulation 2008 for the Viscosity of
@@ -154,10 +175,14 @@ var (
 // mu0 = 100 sqrt(Tr) / sum_{i=0..3} H_i/Tr^i  [uPa s], Tr = T/Tc; Pa s.
 func waterDiluteViscosity(T float64) float64 {
 	tr := T / waterTc
-	x := 1 / tr
+	return r12DiluteViscosity(1/tr, math.Sqrt(tr))
+}
+
+// r12DiluteViscosity is eq. 11 given x = 1/Tr and r = Tr^(1/2).
+func r12DiluteViscosity(x, r float64) float64 {
 	h := &r12H0
 	s := h[0] + x*(h[1]+x*(h[2]+x*h[3])) // sum H_i/Tr^i by Horner's rule
-	return 100 * math.Sqrt(tr) / s * 1e-6
+	return 100 * r / s * 1e-6
 }
 
 // waterViscosity is R12-08 eq. 10 without the critical enhancement
@@ -179,11 +204,24 @@ func waterViscosity(T, rho float64) float64 {
 // zero-density limit lambda0 = sqrt(Tr) / sum_{k=0..4} L_k/Tr^k [mW/(m K)];
 // W/(m K). Coefficients read in python3-iapws 1.5.2 (_iapws.py _ThCond).
 func waterDiluteConductivity(T float64) float64 {
-	l := [5]float64{2.443221e-3, 1.323095e-2, 6.770357e-3, -3.454586e-3, 4.096266e-4}
 	tr := T / waterTc
-	x := 1 / tr
+	return r15DiluteConductivity(1/tr, math.Sqrt(tr))
+}
+
+// r15DiluteConductivity is eq. 16 given x = 1/Tr and r = Tr^(1/2).
+func r15DiluteConductivity(x, r float64) float64 {
+	l := [5]float64{2.443221e-3, 1.323095e-2, 6.770357e-3, -3.454586e-3, 4.096266e-4}
 	s := l[0] + x*(l[1]+x*(l[2]+x*(l[3]+x*l[4]))) // sum L_k/Tr^k by Horner's rule
-	return math.Sqrt(tr) / s * 1e-3
+	return r / s * 1e-3
+}
+
+// waterVaporFilm returns waterVaporHeatCapacity, waterDiluteViscosity and
+// waterDiluteConductivity at T, bit for bit; the two dilute-gas terms share
+// Tr, 1/Tr and sqrt(Tr).
+func waterVaporFilm(T float64) (cp, mu, k float64) {
+	tr := T / waterTc
+	x, r := 1/tr, math.Sqrt(tr)
+	return waterVaporHeatCapacity(T), r12DiluteViscosity(x, r), r15DiluteConductivity(x, r)
 }
 
 // IAPWS-95 ideal-gas part (R6-95(2018) Table 1), coefficients read in
