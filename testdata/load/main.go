@@ -6,7 +6,9 @@
 // POST /api/cases. It prints throughput, p50/p99 latency and errors per
 // kind of request, and the server's resident memory before and after
 // (from /proc/PID/status). It exits 1 on any 5xx, transport error or
-// unexpected status, so CI can run a short version.
+// unexpected status, or when the server's resident peak reaches -max-rss
+// MiB (the performance target: under 100 MB), so CI can run a short
+// version.
 //
 //	go run ./testdata/load -duration 20s -workers 8 -cases 1000
 package main
@@ -42,8 +44,9 @@ func main() {
 	bins := flag.Int("bins", 30, "size classes of each seeded case")
 	seed := flag.Uint64("seed", 1, "random seed for the library and the request mix")
 	bin := flag.String("bin", "", "fogbench binary to run (default: go build one)")
+	maxRSS := flag.Float64("max-rss", 100, "fail when the server's resident peak reaches this many MiB (0: no check)")
 	flag.Parse()
-	if err := run(*duration, *workers, *ncases, *bins, *seed, *bin); err != nil {
+	if err := run(*duration, *workers, *ncases, *bins, *seed, *bin, *maxRSS); err != nil {
 		fmt.Fprintln(os.Stderr, "load:", err)
 		os.Exit(1)
 	}
@@ -58,7 +61,7 @@ type sample struct {
 	dur    time.Duration
 }
 
-func run(duration time.Duration, workers, ncases, bins int, seed uint64, bin string) error {
+func run(duration time.Duration, workers, ncases, bins int, seed uint64, bin string, maxRSS float64) error {
 	dir, err := os.MkdirTemp("", "fogbench-load-")
 	if err != nil {
 		return err
@@ -119,6 +122,9 @@ func run(duration time.Duration, workers, ncases, bins int, seed uint64, bin str
 	}
 	if failures > 0 {
 		return fmt.Errorf("%d failed requests (5xx, transport errors or unexpected status)", failures)
+	}
+	if maxRSS > 0 && float64(hwm) >= maxRSS*(1<<20) {
+		return fmt.Errorf("server resident peak %s reached the limit of %.0f MiB", mib(hwm), maxRSS)
 	}
 	return nil
 }
