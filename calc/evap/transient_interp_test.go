@@ -38,16 +38,7 @@ func interpTransientCase(rng *rand.Rand) (*Conditions, []float64, []float64, His
 		c.Convection = []string{ConvectionRanzMarshall, ConvectionAbramzonSirignano}[rng.IntN(2)]
 		c.RelativeVelocity = 0.1 + 5*rng.Float64()
 	}
-	n := 2 + rng.IntN(199)
-	lo := 0.3e-6 * math.Pow(100, rng.Float64())
-	span := 2 + 500*rng.Float64()
-	d := make([]float64, n)
-	w := make([]float64, n)
-	for i := range d {
-		d[i] = lo * math.Pow(span, float64(i)/float64(max(n-1, 1)))
-		w[i] = rng.Float64()
-	}
-	opts := HistoryOptions{Transient: true, InjectionTemperature: 275 + 45*rng.Float64(), Steps: 50 + rng.IntN(250)}
+	d, w, opts := seededTransientSpray(rng, 200)
 	return c, d, w, opts
 }
 
@@ -63,23 +54,7 @@ func TestInterpTransientMatchesDirect(t *testing.T) {
 	bins, integrated, interpolated := 0, 0, 0
 	for trial := 0; trial < 30; trial++ {
 		c, d, w, opts := interpTransientCase(rng)
-		fast, err := c.NewSpray(d, w, opts)
-		if err != nil {
-			t.Fatal(err)
-		}
-		direct, err := c.NewSpray(d, w, opts)
-		if err != nil {
-			t.Fatal(err)
-		}
-		direct.sp.directTransient = true
-		hf, err := fast.History(0)
-		if err != nil {
-			t.Fatalf("trial %d: %v", trial, err)
-		}
-		hd, err := direct.History(0)
-		if err != nil {
-			t.Fatalf("trial %d: %v", trial, err)
-		}
+		fast, direct, hf, hd := fastAndDirect(t, trial, c, d, w, opts)
 		n := len(d)
 		bins += n
 		integrated += fast.sp.integrated

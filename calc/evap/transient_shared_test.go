@@ -26,17 +26,47 @@ func sharedTransientCase(rng *rand.Rand) (*Conditions, []float64, []float64, His
 	if rng.IntN(2) == 0 {
 		c.Convection = ConvectionRanzMarshall // with no slip, Sh = Nu = 2
 	}
-	n := 2 + rng.IntN(120)
+	d, w, opts := seededTransientSpray(rng, 121)
+	return c, d, w, opts
+}
+
+// seededTransientSpray returns 2 to maxBins log-spaced bins (smallest
+// 0.3–30 µm, spans 2–502) with random volume fractions, and transient
+// options with an injection temperature of 275–320 K and 50–299 steps.
+func seededTransientSpray(rng *rand.Rand, maxBins int) (d, w []float64, opts HistoryOptions) {
+	n := 2 + rng.IntN(maxBins-1)
 	lo := 0.3e-6 * math.Pow(100, rng.Float64())
 	span := 2 + 500*rng.Float64()
-	d := make([]float64, n)
-	w := make([]float64, n)
+	d = make([]float64, n)
+	w = make([]float64, n)
 	for i := range d {
 		d[i] = lo * math.Pow(span, float64(i)/float64(n-1))
 		w[i] = rng.Float64()
 	}
-	opts := HistoryOptions{Transient: true, InjectionTemperature: 275 + 45*rng.Float64(), Steps: 50 + rng.IntN(250)}
-	return c, d, w, opts
+	opts = HistoryOptions{Transient: true, InjectionTemperature: 275 + 45*rng.Float64(), Steps: 50 + rng.IntN(250)}
+	return d, w, opts
+}
+
+// fastAndDirect builds the spray twice, once with every bin's heating
+// phase integrated on its own, and returns both with their histories.
+func fastAndDirect(t *testing.T, trial int, c *Conditions, d, w []float64, opts HistoryOptions) (fast, direct *Spray, hf, hd History) {
+	t.Helper()
+	fast, err := c.NewSpray(d, w, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	direct, err = c.NewSpray(d, w, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	direct.sp.directTransient = true
+	if hf, err = fast.History(0); err != nil {
+		t.Fatalf("trial %d: %v", trial, err)
+	}
+	if hd, err = direct.History(0); err != nil {
+		t.Fatalf("trial %d: %v", trial, err)
+	}
+	return fast, direct, hf, hd
 }
 
 // Every bin's scaled shared heating path agrees with its own integration:
@@ -48,23 +78,7 @@ func TestSharedTransientMatchesDirect(t *testing.T) {
 	worst := 0.0
 	for trial := 0; trial < 40; trial++ {
 		c, d, w, opts := sharedTransientCase(rng)
-		shared, err := c.NewSpray(d, w, opts)
-		if err != nil {
-			t.Fatal(err)
-		}
-		direct, err := c.NewSpray(d, w, opts)
-		if err != nil {
-			t.Fatal(err)
-		}
-		direct.sp.directTransient = true
-		hs, err := shared.History(0)
-		if err != nil {
-			t.Fatalf("trial %d: %v", trial, err)
-		}
-		hd, err := direct.History(0)
-		if err != nil {
-			t.Fatalf("trial %d: %v", trial, err)
-		}
+		shared, direct, hs, hd := fastAndDirect(t, trial, c, d, w, opts)
 		n := len(d)
 		if &shared.sp.tr[0].s[0] != &shared.sp.tr[n-1].s[0] {
 			t.Fatalf("trial %d: the bins do not share the largest bin's path", trial)
