@@ -111,6 +111,34 @@ func (e *e2e) do(what string, steps ...chromedp.Action[chromedp.Void]) {
 	}
 }
 
+// reloaded runs steps that leave the page (a form posted and redirected
+// back to the same page, say) and waits until a new document has loaded
+// and cond, a JavaScript expression, holds on it. Waiting for an element
+// is not enough when the old page has it too; queries made while the
+// browser swaps documents fail, so they are retried.
+func (e *e2e) reloaded(what, cond string, steps ...chromedp.Action[chromedp.Void]) {
+	e.t.Helper()
+	if _, err := chromedp.Run(e.ctx, chromedp.Evaluate[bool](`window.fbOldPage = true`)); err != nil {
+		e.t.Fatalf("%s: mark the page: %v", what, err)
+	}
+	e.do(what, steps...)
+	js := `window.fbOldPage === undefined && document.readyState === "complete" && (` + cond + `)`
+	deadline := time.Now().Add(15 * time.Second)
+	for {
+		ctx, cancel := context.WithTimeout(e.ctx, 2*time.Second)
+		ok, err := chromedp.Run(ctx, chromedp.Evaluate[bool](js))
+		cancel()
+		if err == nil && ok {
+			return
+		}
+		if time.Now().After(deadline) {
+			e.shot("failed-" + what)
+			e.t.Fatalf("%s: the page did not come back with %s (last error: %v)", what, cond, err)
+		}
+		time.Sleep(50 * time.Millisecond)
+	}
+}
+
 // text is the trimmed text of the first element matching sel, once visible.
 func (e *e2e) text(sel string) string {
 	e.t.Helper()
@@ -124,16 +152,25 @@ func (e *e2e) text(sel string) string {
 	return strings.TrimSpace(s)
 }
 
-// value is the current value of a form control.
+// value is the current value of a form control, read by JavaScript in the
+// page (chromedp's own node lookups can still point into the document a
+// reload has just replaced), retried until the control exists.
 func (e *e2e) value(sel string) string {
 	e.t.Helper()
-	ctx, cancel := context.WithTimeout(e.ctx, 15*time.Second)
-	defer cancel()
-	s, err := chromedp.Run(ctx, chromedp.Value(chromedp.CSS(sel)))
-	if err != nil {
-		e.t.Fatalf("value of %s: %v", sel, err)
+	js := fmt.Sprintf(`(() => { const el = document.querySelector(%q); return el ? [el.value] : []; })()`, sel)
+	deadline := time.Now().Add(15 * time.Second)
+	for {
+		ctx, cancel := context.WithTimeout(e.ctx, 2*time.Second)
+		v, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](js))
+		cancel()
+		if err == nil && len(v) == 1 {
+			return v[0]
+		}
+		if time.Now().After(deadline) {
+			e.t.Fatalf("value of %s: no such control (last error: %v)", sel, err)
+		}
+		time.Sleep(50 * time.Millisecond)
 	}
-	return s
 }
 
 // waitText waits until the element's text (or its first number) equals
@@ -203,11 +240,14 @@ func TestE2EJourney(t *testing.T) {
 	}
 	e.shot("library")
 
-	// Switch to US customary units with the header control (keyboard: the
-	// select and its Apply button); the page comes back in psi.
-	e.do("choose US units", chromedp.SetValue(chromedp.ID("units-system"), "us"),
-		chromedp.Click(chromedp.CSS(`[data-testid=units-apply]`)),
-		chromedp.WaitVisible(chromedp.CSS(`[data-testid=case-row]`)))
+	// Switch to US customary units with the header control's Apply button
+	// (the keyboard path: the value is set without a change event, which
+	// would submit the form by itself); the page comes back in psi.
+	if _, err := chromedp.Run(e.ctx, chromedp.Evaluate[string](`document.getElementById("units-system").value = "us"`)); err != nil {
+		t.Fatal(err)
+	}
+	e.reloaded("choose US units", `!!document.querySelector("[data-testid=case-row]")`,
+		chromedp.Click(chromedp.CSS(`[data-testid=units-apply]`)))
 	if got := e.value("#units-system"); got != "us" {
 		t.Fatalf("units switch shows %q after applying us", got)
 	}
@@ -232,6 +272,27 @@ func TestE2EJourney(t *testing.T) {
 	e.waitText("live D32 after typing X", `[data-testid="fig-D32"]`, d32)
 	e.waitText("live Dv50 after typing X", `[data-testid="fig-Dv50"]`, dv50)
 	e.shot("new-case-live")
+
+	// Switching units with unsaved edits keeps them: after the reload the
+	// name, X and X's own unit are back, and the live results follow them.
+	// Switch to SI and back, so the journey goes on in US units; choosing
+	// in the select submits the switch by itself (SetValue fires change).
+	xUnit := e.value(`select[name=x_unit]`)
+	for _, system := range []string{"si", "us"} {
+		e.reloaded("switch to "+system+" with unsaved edits", `!!document.getElementById("case-form")`,
+			chromedp.SetValue(chromedp.ID("units-system"), system))
+		if got := e.value("#units-system"); got != system {
+			t.Fatalf("units switch shows %q after applying %s", got, system)
+		}
+		if got := []string{e.value("#f-name"), e.value("#f-x"), e.value(`select[name=x_unit]`)}; got[0] != "Browser nozzle" || got[1] != "80" || got[2] != xUnit {
+			t.Fatalf("after switching to %s the form holds name, X, X unit %q, want the unsaved %q", system, got, []string{"Browser nozzle", "80", xUnit})
+		}
+		if note := e.text(`[data-testid=unsaved-kept]`); !strings.Contains(note, "unsaved edits were kept") {
+			t.Errorf("no notice of the kept edits: %q", note)
+		}
+		e.waitText("live D32 after the units switch", `[data-testid="fig-D32"]`, d32)
+		e.shot("unsaved-form-kept-" + system)
+	}
 
 	// Import a measured CSV: open the import block, choose the file, read it.
 	csvPath, err := filepath.Abs("../testdata/sizedist/bins_volume_semicolon.csv")

@@ -1,7 +1,7 @@
 // fogbench: progressive enhancement only. The forms work without this file;
 // with it, the case form shows only the fields of the chosen size model, the
-// units switch applies at once, and a file import shows progress and can be
-// cancelled.
+// units switch applies at once and keeps a case form's unsaved edits, and a
+// file import shows progress and can be cancelled.
 (function () {
   "use strict";
   function showModelGroups(form) {
@@ -35,6 +35,64 @@
       if (t.form.requestSubmit) { t.form.requestSubmit(); } else { t.form.submit(); }
     }
   });
+
+  // Switching units reloads the page. A case form with unsaved edits keeps
+  // them: its fields are kept for this page in sessionStorage when the
+  // switch is submitted and put back after the reload. Every number field
+  // carries its own unit, which is kept with it, so the values mean what
+  // the user entered in whichever system the page now shows.
+  var unsavedKey = "fogbench:unsaved-case-form:";
+  function markDirty(e) {
+    var form = e.target && e.target.form;
+    if (form && form.id === "case-form") { form.setAttribute("data-dirty", "1"); }
+  }
+  document.addEventListener("input", markDirty);
+  document.addEventListener("change", markDirty);
+  function keptFields(form) {
+    var fields = [];
+    for (var i = 0; i < form.elements.length; i++) {
+      var el = form.elements[i];
+      if (!el.name || el.type === "hidden" || el.type === "file" || el.type === "submit" || el.type === "button") { continue; }
+      fields.push([el.name, el.type === "checkbox" || el.type === "radio" ? el.checked : el.value]);
+    }
+    return fields;
+  }
+  document.addEventListener("submit", function (e) {
+    var form = document.getElementById("case-form");
+    if (!e.target.classList.contains("units-form") || !form || form.getAttribute("data-dirty") !== "1") { return; }
+    try {
+      sessionStorage.setItem(unsavedKey + location.pathname + location.search, JSON.stringify(keptFields(form)));
+    } catch (err) { /* storage off or full: the switch still applies */ }
+  });
+  function restoreUnsaved() {
+    var key = unsavedKey + location.pathname + location.search;
+    var raw = null;
+    try { raw = sessionStorage.getItem(key); sessionStorage.removeItem(key); } catch (err) { return; }
+    var form = document.getElementById("case-form");
+    if (!raw || !form) { return; }
+    var fields;
+    try { fields = JSON.parse(raw); } catch (err) { return; }
+    var seen = {};
+    for (var i = 0; i < fields.length; i++) {
+      var name = fields[i][0];
+      var same = form.querySelectorAll("[name=\"" + CSS.escape(name) + "\"]");
+      var el = same[seen[name] || 0];
+      seen[name] = (seen[name] || 0) + 1;
+      if (!el) { continue; }
+      if (el.type === "checkbox" || el.type === "radio") { el.checked = fields[i][1] === true; } else { el.value = fields[i][1]; }
+    }
+    form.setAttribute("data-dirty", "1");
+    showModelGroups(form);
+    var note = document.createElement("p");
+    note.className = "note";
+    note.setAttribute("role", "status");
+    note.setAttribute("data-testid", "unsaved-kept");
+    note.textContent = "Your unsaved edits were kept across the unit switch; each value keeps the unit it was entered in. Blank fields and new pages use the new units.";
+    form.insertBefore(note, form.firstChild);
+    // The live results follow the restored fields.
+    form.dispatchEvent(new Event("change", { bubbles: true }));
+  }
+  document.addEventListener("DOMContentLoaded", restoreUnsaved);
 
   // The measured-data import: refuse a file over the limit before sending
   // it, show the upload progress, and let the user cancel.
