@@ -137,3 +137,55 @@ func TestCompareURLNormalised(t *testing.T) {
 		t.Errorf("unknown case: status %d", code)
 	}
 }
+
+// The compare page links to a summary CSV with one row per compared case,
+// in the comparison's order, each row what the case's own summary CSV
+// holds and its D32 what calc.Evaluate gives; bad ids are refused.
+func TestCompareSummaryCSV(t *testing.T) {
+	ts, st := newTestServer(t)
+	ids := fourCases(t, st)
+	c := client(t)
+	u := views.CompareURL(ids, ids[0])
+	doc, code := getDoc(t, c, ts.URL+u)
+	if code != http.StatusOK {
+		t.Fatalf("compare: status %d", code)
+	}
+	href, _ := doc.Find(`[data-testid=compare-csv-link]`).Attr("href")
+	if !strings.HasPrefix(href, "/compare/summary.csv?") {
+		t.Fatalf("CSV link %q", href)
+	}
+	hdr, recs := readCSV(t, ts.URL+href)
+	if cd := hdr.Get("Content-Disposition"); !strings.Contains(cd, fmt.Sprintf("compare-%d-%d-%d-%d-summary.csv", ids[0], ids[1], ids[2], ids[3])) {
+		t.Errorf("Content-Disposition %q", cd)
+	}
+	if len(recs) != 1+len(ids) || strings.Join(recs[0], ",") != strings.Join(summaryCSVHeader, ",") {
+		t.Fatalf("compare CSV: %d lines, header %q", len(recs), recs[0])
+	}
+	for i, id := range ids {
+		_, own := readCSV(t, fmt.Sprintf("%s/cases/%d/summary.csv", ts.URL, id))
+		if strings.Join(recs[1+i], ",") != strings.Join(own[1], ",") {
+			t.Errorf("row %d: %q, the case's own summary %q", i+1, recs[1+i], own[1])
+		}
+		rec, err := st.GetCase(context.Background(), id)
+		if err != nil {
+			t.Fatal(err)
+		}
+		res, err := calc.Evaluate(rec.Case)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if recs[1+i][0] != fmt.Sprint(id) || recs[1+i][6] != csvNum(res.Summary.D32M*1e6) {
+			t.Errorf("row %d: case %q D32 %q, want %d and %s", i+1, recs[1+i][0], recs[1+i][6], id, csvNum(res.Summary.D32M*1e6))
+		}
+	}
+	for _, bad := range []string{"ids=1", "ids=1,x", fmt.Sprintf("ids=%d,999999", ids[0])} {
+		resp, err := c.Get(ts.URL + "/compare/summary.csv?" + bad)
+		if err != nil {
+			t.Fatal(err)
+		}
+		resp.Body.Close()
+		if resp.StatusCode == http.StatusOK {
+			t.Errorf("%s: status 200", bad)
+		}
+	}
+}

@@ -188,6 +188,48 @@ func (s *Server) evaluatedCase(r *http.Request) (store.CaseRecord, *calc.Result,
 	return rec, res, err
 }
 
+// handleCompareSummaryCSV serves GET /compare/summary.csv?ids=…: the
+// summary CSV of every compared case, one row each under one header, in
+// the comparison's order, as a spreadsheet wants them side by side.
+func (s *Server) handleCompareSummaryCSV(w http.ResponseWriter, r *http.Request) {
+	ids, _, err := parseCompareIDs(r)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	var buf bytes.Buffer
+	cw := csv.NewWriter(&buf)
+	cw.Write(summaryCSVHeader)
+	for _, id := range ids {
+		rec, err := s.Store.GetCase(r.Context(), id)
+		if err != nil {
+			s.error(w, r, err)
+			return
+		}
+		res, err := calc.EvaluateContext(r.Context(), rec.Case)
+		if err != nil {
+			s.error(w, r, fmt.Errorf("case %d: %w", id, err))
+			return
+		}
+		cw.Write(summaryCSVRow(rec, res))
+	}
+	cw.Flush()
+	if err := cw.Error(); err != nil {
+		s.error(w, r, err)
+		return
+	}
+	writeCSV(w, fmt.Sprintf(`attachment; filename="compare-%s-summary.csv"`, joinIDs(ids, "-")), buf.Bytes())
+}
+
+// joinIDs writes case numbers joined by sep.
+func joinIDs(ids []int64, sep string) string {
+	parts := make([]string, len(ids))
+	for i, id := range ids {
+		parts[i] = strconv.FormatInt(id, 10)
+	}
+	return strings.Join(parts, sep)
+}
+
 func writeCSV(w http.ResponseWriter, disposition string, body []byte) {
 	w.Header().Set("Content-Type", "text/csv; charset=utf-8")
 	w.Header().Set("Content-Disposition", disposition)

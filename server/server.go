@@ -104,6 +104,7 @@ func (s *Server) Handler() http.Handler {
 	r.Get("/compare", s.handleCompare)
 	r.Get("/compare/report", s.handleCompareReport)
 	r.Get("/compare/report.pdf", s.handleCompareReportPDF)
+	r.Get("/compare/summary.csv", s.handleCompareSummaryCSV)
 	r.Get("/bundle/export", s.handleExportPage)
 	r.Get("/bundle/import", s.handleImportPage)
 	r.Post("/bundle/import", s.handleImportPreview)

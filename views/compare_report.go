@@ -58,6 +58,9 @@ func (v CompareView) ReportURL(paper string) string {
 // PDFURL is the PDF of this comparison.
 func (v CompareView) PDFURL() string { return "/compare/report.pdf?" + v.Query() }
 
+// CSVURL is the summary CSV of the compared cases, one row per case.
+func (v CompareView) CSVURL() string { return "/compare/summary.csv?" + v.Query() }
+
 // Cautions are the safety notes of all the cases, each once, in the order
 // the cases give them.
 func (v CompareReportView) Cautions() []string {
