@@ -123,20 +123,39 @@ func (s *Server) CompareView(r *http.Request, recs []store.CaseRecord, baseID in
 }
 
 // inputRow turns a case-file field into a table row: numbers in the unit
-// its name implies, anything else as text.
+// its name implies; lists of numbers (class edges) as text in that unit,
+// compared exactly; anything else as text, without a unit when the name
+// implies one its text is not in.
 func inputRow(f store.FieldDiff, n int) views.CompareRow {
 	unit, scale := views.FieldUnit(f.Path)
-	row := views.CompareRow{Label: f.Path, Unit: unit, Numeric: true, Values: make([]float64, n), Has: make([]bool, n), Text: f.Values, Sig: 6}
+	row := views.CompareRow{Label: f.Path, Unit: unit, Numeric: true, Values: make([]float64, n), Has: make([]bool, n), Sig: 6}
+	text := make([]string, n)
+	raw := false
 	for i := range n {
 		if !f.Present[i] {
 			continue
 		}
-		x, ok := f.Number(i)
-		if !ok {
-			row.Numeric = false
+		if x, ok := f.Number(i); ok {
+			row.Values[i], row.Has[i] = x*scale, true
+			text[i] = views.Num(x*scale, row.Sig)
 			continue
 		}
-		row.Values[i], row.Has[i] = x*scale, true
+		row.Numeric = false
+		if xs, ok := f.Numbers(i); ok {
+			parts := make([]string, len(xs))
+			for k, x := range xs {
+				parts[k] = views.Num(x*scale, row.Sig)
+			}
+			text[i] = strings.Join(parts, ", ")
+			continue
+		}
+		text[i], raw = f.Values[i], true
+	}
+	if !row.Numeric {
+		row.Text, row.Key = text, f.Values
+		if raw && scale != 1 {
+			row.Unit = ""
+		}
 	}
 	return row
 }

@@ -189,3 +189,42 @@ func TestCompareSummaryCSV(t *testing.T) {
 		}
 	}
 }
+
+// A list of class edges is shown in the unit its name implies (µm, not the
+// stored metres), rounded like the other inputs, and compared exactly: edges
+// that differ below the shown digits still mark the row as differing.
+func TestCompareInputListsInTheirUnit(t *testing.T) {
+	base := calc.Case{Format: calc.CaseFormat, Name: "a", Fluid: "water",
+		Gas:          calc.Gas{PressurePa: 101325, TemperatureK: 300},
+		Distribution: calc.Distribution{Model: "bins", EdgesM: []float64{5e-6, 7.5e-6, 1.68e-05, 4e-05}, Fraction: []float64{0.2, 0.5, 0.3}, Basis: "volume"}}
+	other := base
+	other.Name = "b"
+	other.Distribution.EdgesM = []float64{5e-6, 7.5e-6, 1.68e-05 * (1 + 1e-12), 4e-05}
+	fields, err := store.CompareCases(base, other)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var edges, model *views.CompareRow
+	for _, f := range fields {
+		row := inputRow(f, 2)
+		switch f.Path {
+		case "distribution.edges_m":
+			edges = &row
+		case "distribution.model":
+			model = &row
+		}
+	}
+	if edges == nil || model == nil {
+		t.Fatal("edges or model row missing")
+	}
+	want := strings.Join([]string{views.Num(5, 6), views.Num(7.5, 6), views.Num(16.8, 6), views.Num(40, 6)}, ", ")
+	if edges.Unit != "µm" || edges.Cell(0) != want || edges.Cell(1) != want {
+		t.Errorf("edges row: unit %q, cells %q and %q, want µm and %q", edges.Unit, edges.Cell(0), edges.Cell(1), want)
+	}
+	if !edges.Differs(1, 0) || edges.Differs(0, 0) {
+		t.Error("edges that differ below the shown digits are not marked as differing")
+	}
+	if model.Unit != "" || model.Cell(0) != "bins" || model.Differs(1, 0) {
+		t.Errorf("model row: unit %q, cell %q, differs %v", model.Unit, model.Cell(0), model.Differs(1, 0))
+	}
+}

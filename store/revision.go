@@ -49,6 +49,20 @@ func (f FieldDiff) Number(i int) (float64, bool) {
 	return v, err == nil
 }
 
+// Numbers is the field's value in case i when it is a JSON array of
+// numbers (class edges, fractions).
+func (f FieldDiff) Numbers(i int) ([]float64, bool) {
+	raw := f.raws[i]
+	if len(raw) == 0 || raw[0] != '[' {
+		return nil, false
+	}
+	var xs []float64
+	if err := json.Unmarshal(raw, &xs); err != nil {
+		return nil, false
+	}
+	return xs, true
+}
+
 // caseField is one leaf of a case file. Arrays are leaves: a list of class
 // edges is one input, changed as a whole.
 type caseField struct {

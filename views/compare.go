@@ -47,7 +47,10 @@ type CompareRow struct {
 	Values  []float64
 	Has     []bool
 	Text    []string
-	Sig     int // significant figures to show; 4 when zero
+	// Key, when set, is what Differs compares in a text row (the exact
+	// value) where Text is rounded for display.
+	Key []string
+	Sig int // significant figures to show; 4 when zero
 }
 
 // IDs lists the case numbers in column order.
@@ -104,6 +107,9 @@ func (r CompareRow) Differs(i, base int) bool {
 			return true
 		}
 		return r.Has[i] && r.Values[i] != r.Values[base]
+	}
+	if r.Key != nil {
+		return r.Key[i] != r.Key[base]
 	}
 	return r.Text[i] != r.Text[base]
 }
