@@ -6,6 +6,7 @@ import (
 	"errors"
 	"fmt"
 	"net/url"
+	"time"
 
 	"github.com/mattn/go-sqlite3"
 )
@@ -41,7 +42,7 @@ func openSQLite(ctx context.Context, path string) (*Store, error) {
 	w.SetMaxOpenConns(1)
 	d := sqliteDialect{}
 	s := newStore(conn{w, d}, path)
-	if err := w.PingContext(ctx); err != nil {
+	if err := pingSQLite(ctx, w, d); err != nil {
 		w.Close()
 		return nil, fmt.Errorf("store: open %s: %w", path, err)
 	}
@@ -57,6 +58,30 @@ func openSQLite(ctx context.Context, path string) (*Store, error) {
 	r.SetMaxOpenConns(4)
 	s.read = conn{r, d}
 	return s, nil
+}
+
+// openBusyWait bounds how long opening a library waits for other processes
+// opening it at the same moment (see pingSQLite).
+const openBusyWait = 10 * time.Second
+
+// pingSQLite makes the first connection. Its settings switch a new file to
+// WAL, which needs the file to itself: when several servers open one new
+// library at once, SQLite can answer "database is locked" at once, without
+// waiting out the busy timeout (it would risk a deadlock), so the
+// connection is tried again for up to openBusyWait.
+func pingSQLite(ctx context.Context, db *sql.DB, d sqliteDialect) error {
+	deadline := time.Now().Add(openBusyWait)
+	for wait := 5 * time.Millisecond; ; wait = min(2*wait, 200*time.Millisecond) {
+		err := db.PingContext(ctx)
+		if err == nil || !d.isBusy(err) || time.Now().After(deadline) {
+			return err
+		}
+		select {
+		case <-ctx.Done():
+			return ctx.Err()
+		case <-time.After(wait):
+		}
+	}
 }
 
 func (sqliteDialect) rebind(q string) string                  { return q }
