@@ -276,28 +276,8 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	// 130); once stop has run, a second one ends the process as usual.
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
 	defer stop()
-	// Compact JSON: indenting doubled the bytes and took about a sixth of
-	// a batch's CPU. A single case printed to a terminal stays indented
-	// for reading. calc's encoder writes what encoding/json writes, faster;
-	// each worker encodes the results it computed, so the encoding runs on
-	// all cores too, and nothing is written unless every case succeeded.
 	array := calc.IsArray(data)
-	pretty := !array && isTerminal(stdout)
-	outs := make([][]byte, len(cases))
-	var single *calc.Result
-	i, err := runAll(len(cases), runtime.GOMAXPROCS(0), func(i int) error {
-		res, err := calc.EvaluateContext(ctx, cases[i])
-		if err != nil {
-			return err
-		}
-		if pretty {
-			single = res
-			return nil
-		}
-		outs[i], err = res.AppendJSON(nil)
-		return err
-	})
-	if err != nil {
+	failed := func(i int, err error) int {
 		where := name
 		if len(cases) > 1 {
 			where = fmt.Sprintf("%s: case %d", name, i+1)
@@ -311,18 +291,53 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		}
 		return 2
 	}
-	if pretty {
+	if !array && isTerminal(stdout) {
+		// A single case printed to a terminal is indented for reading.
+		res, err := calc.EvaluateContext(ctx, cases[0])
+		if err != nil {
+			return failed(0, err)
+		}
 		enc := json.NewEncoder(stdout)
 		enc.SetIndent("", "  ")
-		err = enc.Encode(single)
-	} else {
-		_, err = joinJSON(outs, array).WriteTo(stdout)
+		if err := enc.Encode(res); err != nil {
+			fmt.Fprintf(stderr, "fogbench eval: %v\n", err)
+			return 1
+		}
+		return 0
 	}
+	outs, i, err := encodeAll(ctx, cases, runtime.GOMAXPROCS(0))
 	if err != nil {
+		return failed(i, err)
+	}
+	if _, err := joinJSON(outs, array).WriteTo(stdout); err != nil {
 		fmt.Fprintf(stderr, "fogbench eval: %v\n", err)
 		return 1
 	}
 	return 0
+}
+
+// encodeAll evaluates the cases on up to workers goroutines (cases are
+// independent and calc.Evaluate is safe for concurrent use), each encoding
+// the results it computed as compact JSON, and returns the encodings in
+// input order; or the first failing case in input order with its index and
+// error, as a one-by-one loop would. Compact: indenting doubled the bytes
+// and took about a sixth of a batch's CPU; calc's encoder writes what
+// encoding/json writes, faster, and encoding in the workers puts it on all
+// cores. When ctx is done the case being evaluated fails with calc's
+// Canceled error.
+func encodeAll(ctx context.Context, cases []calc.Case, workers int) ([][]byte, int, error) {
+	outs := make([][]byte, len(cases))
+	i, err := runAll(len(cases), workers, func(i int) error {
+		res, err := calc.EvaluateContext(ctx, cases[i])
+		if err == nil {
+			outs[i], err = res.AppendJSON(nil)
+		}
+		return err
+	})
+	if err != nil {
+		return nil, i, err
+	}
+	return outs, 0, nil
 }
 
 // joinJSON returns the encoded results as one JSON value and a newline:
@@ -343,24 +358,6 @@ func joinJSON(outs [][]byte, array bool) *net.Buffers {
 	}
 	bufs = append(bufs, []byte("]\n"))
 	return &bufs
-}
-
-// evaluateAll evaluates the cases on up to workers goroutines (cases are
-// independent and calc.Evaluate is safe for concurrent use) and returns the
-// results in input order, or the first failing case in input order with its
-// index and error, as a one-by-one loop would: cases after a failure are
-// skipped, cases before it are always evaluated.
-func evaluateAll(cases []calc.Case, workers int) ([]*calc.Result, int, error) {
-	results := make([]*calc.Result, len(cases))
-	i, err := runAll(len(cases), workers, func(i int) error {
-		res, err := calc.Evaluate(cases[i])
-		results[i] = res
-		return err
-	})
-	if err != nil {
-		return nil, i, err
-	}
-	return results, 0, nil
 }
 
 // runAll calls do(i) for i = 0 … n−1 on up to workers goroutines and

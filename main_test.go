@@ -85,10 +85,11 @@ func TestEvalWritesCompactJSON(t *testing.T) {
 	}
 }
 
-// Cases evaluated on several goroutines come back in input order, equal
-// to one-by-one evaluation, and the failure reported is the first in input
-// order whatever the number of workers.
-func TestEvaluateAllKeepsOrder(t *testing.T) {
+// Cases evaluated and encoded on several goroutines come back in input
+// order: the joined output is byte for byte what encoding the one-by-one
+// results as an array gives (calc.AppendResultsJSON), and the failure
+// reported is the first in input order whatever the number of workers.
+func TestEncodeAllKeepsOrder(t *testing.T) {
 	one := func(name, fluid string, x float64) string {
 		return fmt.Sprintf(`{"format":"fogbench-case/1","name":%q,"fluid":%q,"liquid_temperature_k":300,
 		"gas":{"pressure_pa":101325,"temperature_k":320},"distribution":{"model":"rosin-rammler","x_m":%g,"q":3,"bins":8}}`, name, fluid, x)
@@ -110,26 +111,46 @@ func TestEvaluateAllKeepsOrder(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, workers := range []int{1, 2, 5, 32} {
-		res, _, err := evaluateAll(goodCases, workers)
+	var want []*calc.Result
+	for _, c := range goodCases {
+		r, err := calc.Evaluate(c)
 		if err != nil {
 			t.Fatal(err)
 		}
-		for i, r := range res {
-			want, err := calc.Evaluate(goodCases[i])
-			if err != nil {
-				t.Fatal(err)
-			}
-			a, _ := json.Marshal(r)
-			b, _ := json.Marshal(want)
-			if !bytes.Equal(a, b) {
-				t.Fatalf("%d workers: result %d differs from one-by-one evaluation", workers, i)
-			}
+		want = append(want, r)
+	}
+	wantJSON, err := calc.AppendResultsJSON(nil, want)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ctx := context.Background()
+	for _, workers := range []int{1, 2, 5, 32} {
+		outs, _, err := encodeAll(ctx, goodCases, workers)
+		if err != nil {
+			t.Fatal(err)
 		}
-		_, i, err := evaluateAll(badCases, workers)
+		var got bytes.Buffer
+		if _, err := joinJSON(outs, true).WriteTo(&got); err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Equal(got.Bytes(), append(wantJSON, '\n')) {
+			t.Fatalf("%d workers: output differs from the one-by-one results encoded as an array", workers)
+		}
+		_, i, err := encodeAll(ctx, badCases, workers)
 		if err == nil || i != 4 || !strings.Contains(err.Error(), "no-such-liquid") {
 			t.Fatalf("%d workers: failure at case %d (%v), want case index 4", workers, i, err)
 		}
+	}
+	// One case, not an array: the object and a newline.
+	outs, _, err := encodeAll(ctx, goodCases[:1], 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var got bytes.Buffer
+	joinJSON(outs, false).WriteTo(&got)
+	first, _ := want[0].AppendJSON(nil)
+	if !bytes.Equal(got.Bytes(), append(first, '\n')) {
+		t.Fatal("a single case's output is not its object and a newline")
 	}
 }
 
