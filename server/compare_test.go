@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"net/http"
+	"net/http/httptest"
 	"strings"
 	"testing"
 
@@ -34,15 +35,23 @@ func fourCases(t *testing.T, st *store.Store) []int64 {
 	return []int64{rows[0].ID, rows[1].ID, rows[2].ID, rec.ID}
 }
 
-func TestCompareFourCases(t *testing.T) {
-	ts, st := newTestServer(t)
-	ids := fourCases(t, st)
-	c := client(t)
-	u := views.CompareURL(ids, ids[0])
+// openCompare serves the demo library with a fourth case and opens the
+// comparison of all four with the first as baseline.
+func openCompare(t *testing.T) (ts *httptest.Server, st *store.Store, ids []int64, c *http.Client, u string, doc *goquery.Document) {
+	t.Helper()
+	ts, st = newTestServer(t)
+	ids = fourCases(t, st)
+	c = client(t)
+	u = views.CompareURL(ids, ids[0])
 	doc, code := getDoc(t, c, ts.URL+u)
 	if code != http.StatusOK {
 		t.Fatalf("compare: status %d", code)
 	}
+	return ts, st, ids, c, u, doc
+}
+
+func TestCompareFourCases(t *testing.T) {
+	ts, st, ids, c, u, doc := openCompare(t)
 	// The page links to its own URL, so it can be reopened.
 	if href, _ := doc.Find(`[data-testid=compare-link]`).Attr("href"); href != u {
 		t.Fatalf("self link %q, want %q", href, u)
@@ -142,14 +151,7 @@ func TestCompareURLNormalised(t *testing.T) {
 // in the comparison's order, each row what the case's own summary CSV
 // holds and its D32 what calc.Evaluate gives; bad ids are refused.
 func TestCompareSummaryCSV(t *testing.T) {
-	ts, st := newTestServer(t)
-	ids := fourCases(t, st)
-	c := client(t)
-	u := views.CompareURL(ids, ids[0])
-	doc, code := getDoc(t, c, ts.URL+u)
-	if code != http.StatusOK {
-		t.Fatalf("compare: status %d", code)
-	}
+	ts, st, ids, c, _, doc := openCompare(t)
 	href, _ := doc.Find(`[data-testid=compare-csv-link]`).Attr("href")
 	if !strings.HasPrefix(href, "/compare/summary.csv?") {
 		t.Fatalf("CSV link %q", href)

@@ -197,10 +197,8 @@ func (s *Server) handleCompareSummaryCSV(w http.ResponseWriter, r *http.Request)
 		s.error(w, r, err)
 		return
 	}
-	var buf bytes.Buffer
-	cw := csv.NewWriter(&buf)
-	cw.Write(summaryCSVHeader)
-	for _, id := range ids {
+	rows := make([][]string, len(ids))
+	for i, id := range ids {
 		rec, err := s.Store.GetCase(r.Context(), id)
 		if err != nil {
 			s.error(w, r, err)
@@ -211,14 +209,23 @@ func (s *Server) handleCompareSummaryCSV(w http.ResponseWriter, r *http.Request)
 			s.error(w, r, fmt.Errorf("case %d: %w", id, err))
 			return
 		}
-		cw.Write(summaryCSVRow(rec, res))
+		rows[i] = summaryCSVRow(rec, res)
 	}
-	cw.Flush()
-	if err := cw.Error(); err != nil {
+	body, err := summaryCSV(rows...)
+	if err != nil {
 		s.error(w, r, err)
 		return
 	}
-	writeCSV(w, fmt.Sprintf(`attachment; filename="compare-%s-summary.csv"`, joinIDs(ids, "-")), buf.Bytes())
+	writeCSV(w, fmt.Sprintf(`attachment; filename="compare-%s-summary.csv"`, joinIDs(ids, "-")), body)
+}
+
+// summaryCSV is the summary header and the given rows.
+func summaryCSV(rows ...[]string) ([]byte, error) {
+	var buf bytes.Buffer
+	cw := csv.NewWriter(&buf)
+	cw.Write(summaryCSVHeader)
+	err := cw.WriteAll(rows)
+	return buf.Bytes(), err
 }
 
 // joinIDs writes case numbers joined by sep.
@@ -258,14 +265,10 @@ func (s *Server) handleCaseSummaryCSV(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	var buf bytes.Buffer
-	cw := csv.NewWriter(&buf)
-	cw.Write(summaryCSVHeader)
-	cw.Write(summaryCSVRow(rec, res))
-	cw.Flush()
-	if err := cw.Error(); err != nil {
+	body, err := summaryCSV(summaryCSVRow(rec, res))
+	if err != nil {
 		s.error(w, r, err)
 		return
 	}
-	writeCSV(w, attachment(rec, "summary", "csv"), buf.Bytes())
+	writeCSV(w, attachment(rec, "summary", "csv"), body)
 }
