@@ -107,7 +107,11 @@ func (pc *filmPure) at(l *Liquid, g *Gas, p, Ts, Tinf float64) {
 	p = positiveOr(p, 1e-3)
 	Ts = l.clampLiquid(Ts)
 	Tinf = positiveOr(Tinf, 1e-3)
-	tr := Ts + (Tinf-Ts)/3
+	pc.atRef(l, g, p, Ts+(Tinf-Ts)/3)
+}
+
+// atRef fills the properties at the reference temperature tr (held p).
+func (pc *filmPure) atRef(l *Liquid, g *Gas, p, tr float64) {
 	pc.p, pc.tr, pc.mv, pc.mg = p, tr, l.molarMass, g.molarMass
 	// The same numbers as VaporHeatCapacity, HeatCapacity, VaporViscosity,
 	// Viscosity, VaporConductivity, Conductivity and Diffusivity at tr, with
@@ -158,28 +162,118 @@ func (pc *filmPure) mix(Ys, Yinf float64) Film {
 }
 
 // FilmCache evaluates the film of one liquid in one gas for a solver that
-// asks many times: it keeps the pure-component properties of the last
+// asks many times. It keeps the pure-component properties of the last
 // (p, Ts, Tinf), so that at a fixed surface temperature every drop size
 // pays only for the mixing step (the vapor fraction at the surface changes
-// with the Kelvin raise, the reference temperature does not). It is not
-// safe for concurrent use; make one per evaluation.
+// with the Kelvin raise, the reference temperature does not). Solvers whose
+// surface temperature changes at every call (the steady temperature of each
+// size, transient heating) get them, from the second surface temperature
+// on, by interpolation on a grid in the reference temperature (see
+// filmGridStep). It is not safe for concurrent use; make one per
+// evaluation.
 type FilmCache struct {
 	l  *Liquid
 	g  *Gas
 	pc filmPure
+	// The grid: pure-component properties at tr = k·filmGridStep for the
+	// p and Tinf of gridP, gridTinf, filled as queries need them.
+	grid            map[int64]filmNode
+	gridP, gridTinf float64
+	// win holds the four nodes around the last gridded query (the cell
+	// k0), which nearby queries share.
+	win    [4]filmNode
+	winK   int64
+	winSet bool
+	misses int // surface states computed so far
+}
+
+// filmGridStep is the spacing in K of FilmCache's grid in the reference
+// temperature. Each property is interpolated by the cubic through the four
+// nodes around the query; the properties are smooth in T, and with nodes
+// 0.125 K apart the interpolation error is at the level of the rounding of
+// the property functions themselves (TestFilmCacheGridMatchesFilmProperties
+// holds every film number to 1e-12 relative of FilmProperties).
+const filmGridStep = 0.125
+
+// filmNode is what the grid keeps of filmPure at a node.
+type filmNode struct{ cpv, cpg, muv, mug, kv, kg, diff, phiVG, phiGV float64 }
+
+// node returns the grid's node k (tr = k·filmGridStep at gridP), computing
+// it the first time.
+func (c *FilmCache) node(k int64) filmNode {
+	if n, ok := c.grid[k]; ok {
+		return n
+	}
+	var pc filmPure
+	pc.fl, pc.fl1, pc.flg = c.pc.fl, c.pc.fl1, c.pc.flg
+	pc.atRef(c.l, c.g, c.gridP, float64(k)*filmGridStep)
+	c.pc.fl, c.pc.fl1, c.pc.flg = pc.fl, pc.fl1, pc.flg
+	n := filmNode{pc.cpv, pc.cpg, pc.muv, pc.mug, pc.kv, pc.kg, pc.diff, pc.phiVG, pc.phiGV}
+	c.grid[k] = n
+	return n
 }
 
 // NewFilmCache returns an empty cache for liquid l in gas g.
 func NewFilmCache(l *Liquid, g *Gas) *FilmCache { return &FilmCache{l: l, g: g} }
 
-// Properties returns FilmProperties(l, g, p, Ts, Tinf, Ys, Yinf) bit for
-// bit, without its Warnings (call CheckFilm for those); see FilmProperties
-// for the formulas, units and sources.
+// Properties returns FilmProperties(l, g, p, Ts, Tinf, Ys, Yinf) without
+// its Warnings (call CheckFilm for those); see FilmProperties for the
+// formulas, units and sources. The first surface state, and any whose
+// interpolation would reach outside the property functions' smooth range,
+// are computed directly and are FilmProperties' numbers bit for bit; later
+// ones come from the grid, within 1e-12 relative.
 func (c *FilmCache) Properties(p, Ts, Tinf, Ys, Yinf float64) Film {
 	if !c.pc.set || c.pc.inP != p || c.pc.inTs != Ts || c.pc.inTinf != Tinf {
-		c.pc.at(c.l, c.g, p, Ts, Tinf)
+		c.misses++
+		if c.misses == 1 || !c.fromGrid(p, Ts, Tinf) {
+			c.pc.at(c.l, c.g, p, Ts, Tinf)
+		}
 	}
 	return c.pc.mix(Ys, Yinf)
+}
+
+// fromGrid fills c.pc for (p, Ts, Tinf) by interpolation on the grid and
+// reports whether it could: the inputs must be valid as they stand (no
+// holding) and the four nodes inside the range where the vapor and gas
+// properties are evaluated unclamped.
+func (c *FilmCache) fromGrid(p, Ts, Tinf float64) bool {
+	l, g := c.l, c.g
+	if !(p >= 1e-3 && p <= math.MaxFloat64) || !(Tinf >= 1e-3 && Tinf <= math.MaxFloat64) || l.clampLiquid(Ts) != Ts {
+		return false
+	}
+	tr := Ts + (Tinf-Ts)/3
+	x := tr / filmGridStep
+	k0 := math.Floor(x)
+	lo, hi := (k0-1)*filmGridStep, (k0+2)*filmGridStep
+	if !(k0 > -1e15 && k0 < 1e15) || l.clampVapor(lo) != lo || l.clampVapor(hi) != hi || g.clamp(lo) != lo || g.clamp(hi) != hi {
+		return false
+	}
+	if c.grid == nil || c.gridP != p || c.gridTinf != Tinf {
+		c.grid, c.gridP, c.gridTinf, c.winSet = map[int64]filmNode{}, p, Tinf, false
+	}
+	if k := int64(k0); !c.winSet || c.winK != k {
+		for j := range c.win {
+			c.win[j] = c.node(k - 1 + int64(j))
+		}
+		c.winK, c.winSet = k, true
+	}
+	// Lagrange weights of the cubic through the nodes at −1, 0, 1, 2.
+	u := x - k0
+	w0, w1, w2, w3 := -u*(u-1)*(u-2)/6, (u+1)*(u-1)*(u-2)/2, -(u+1)*u*(u-2)/2, (u+1)*u*(u-1)/6
+	n0, n1, n2, n3 := &c.win[0], &c.win[1], &c.win[2], &c.win[3]
+	pc := &c.pc
+	pc.inP, pc.inTs, pc.inTinf, pc.set = p, Ts, Tinf, true
+	pc.p, pc.tr, pc.mv, pc.mg = p, tr, l.molarMass, g.molarMass
+	pc.cpv = w0*n0.cpv + w1*n1.cpv + w2*n2.cpv + w3*n3.cpv
+	pc.cpg = w0*n0.cpg + w1*n1.cpg + w2*n2.cpg + w3*n3.cpg
+	pc.muv = w0*n0.muv + w1*n1.muv + w2*n2.muv + w3*n3.muv
+	pc.mug = w0*n0.mug + w1*n1.mug + w2*n2.mug + w3*n3.mug
+	pc.kv = w0*n0.kv + w1*n1.kv + w2*n2.kv + w3*n3.kv
+	pc.kg = w0*n0.kg + w1*n1.kg + w2*n2.kg + w3*n3.kg
+	pc.diff = w0*n0.diff + w1*n1.diff + w2*n2.diff + w3*n3.diff
+	pc.phiVG = w0*n0.phiVG + w1*n1.phiVG + w2*n2.phiVG + w3*n3.phiVG
+	pc.phiGV = w0*n0.phiGV + w1*n1.phiGV + w2*n2.phiGV + w3*n3.phiGV
+	return true
 }
 
 // wilkePhi is Wilke's interaction parameter phi_ij (Poling et al. 5th ed.
