@@ -276,7 +276,7 @@ type sprayPaths struct {
 	scale        []float64 // remaining mass fraction when it joins
 	dJoin        []float64
 	tr           []*transientPath
-	trCur        []int // step hints into tr for remaining
+	trCur        []int // step hints into tr, for remaining and the sweep
 	heldWeight   float64
 	shortestLife float64
 	cursor       []int
@@ -470,7 +470,9 @@ func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) error {
 	if sp.tr == nil && sp.table != nil {
 		return sp.sweepSteady(ts, evap, d32, dv50, vol)
 	}
-	trCur := make([]int, n) // each heating path's step, walked forward
+	for i := range sp.trCur {
+		sp.trCur[i] = -1 // each heating path's step, walked forward from here
+	}
 	for k, t := range ts {
 		if err := sp.stopped(); err != nil {
 			return err
@@ -479,7 +481,7 @@ func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) error {
 		for i := 0; i < n; i++ {
 			var d, f float64
 			if sp.tr != nil && sp.tr[i] != nil && t < sp.join[i] {
-				d, f = sp.tr[i].atFrom(t, &trCur[i])
+				d, f = sp.tr[i].atFrom(t, &sp.trCur[i])
 			} else {
 				d, f = sp.state(i, t, &sp.cursor[i])
 			}
