@@ -233,7 +233,13 @@ func TestDecodeReportsFields(t *testing.T) {
 		{`{"name":"x","gas":{"pressure_pa":"high"}}`, "gas.pressure_pa"},
 		{`{"name":`, "file"},
 		{``, "file"},
-		{`[{"name":"a"},{"name":"b","extra":1}]`, "extra"},
+		{`[{"name":"a"},{"name":"b","extra":1}]`, "[1].extra"},
+		{`{"name":"x","gas":{"foo":1}}`, "gas.foo"},
+		{`[{"name":"a"},{"name":"b","gas":{"pressure_pa":[]}}]`, "[1].gas.pressure_pa"},
+		{`{"name":"x","distribution":{"edges_m":[1e-6,"2"]}}`, "distribution.edges_m[1]"},
+		{"{\"name\":\"a\xffb\"}", "name"},
+		{`[]`, "file"},
+		{` [ ] `, "file"},
 	}
 	for _, c := range cases {
 		_, err := Decode(strings.NewReader(c.in))

@@ -185,27 +185,30 @@ func (s *Server) handleAPICaseUpdate(w http.ResponseWriter, r *http.Request) {
 		Revision int             `json:"revision"`
 		Case     json.RawMessage `json:"case"`
 	}
-	dec := json.NewDecoder(r.Body)
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(&body); err != nil {
-		if isTooLarge(err) {
-			s.apiError(w, r, err) // 413 with the limit, not a JSON complaint
-			return
-		}
-		s.apiError(w, r, &valid.FieldError{Field: "file", Message: "expected {\"revision\":N,\"case\":{…}}: " + err.Error()})
+	data, err := io.ReadAll(r.Body)
+	if err != nil {
+		s.apiError(w, r, err) // 413 with the limit, not a JSON complaint
+		return
+	}
+	if err := valid.DecodeJSON(data, &body, "request"); err != nil {
+		s.apiError(w, r, err)
 		return
 	}
 	if body.Revision <= 0 {
 		s.apiError(w, r, &valid.FieldError{Field: "revision", Message: "give the revision your change is based on"})
 		return
 	}
-	c, err := calc.DecodeOne(body.Case)
+	if len(body.Case) == 0 || string(body.Case) == "null" {
+		s.apiError(w, r, &valid.FieldError{Field: "case", Message: `give the case: {"revision":N,"case":{…}}`})
+		return
+	}
+	c, err := calc.DecodeAt(body.Case, "case")
 	if err != nil {
 		s.apiError(w, r, err)
 		return
 	}
 	if err := calc.Validate(c); err != nil {
-		s.apiError(w, r, err)
+		s.apiError(w, r, valid.Within("case", err)) // the case's fields sit under "case"
 		return
 	}
 	rec, err := s.Store.UpdateCase(r.Context(), id, body.Revision, c, s.author(r))

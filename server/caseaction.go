@@ -61,7 +61,13 @@ func (s *Server) handleCaseTags(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	tags := store.NormalizeTags(strings.Split(r.PostFormValue("tags"), ","))
+	// Refused before the store is touched: too many tags, or one too long
+	// or not plain text, is a 400 that says which (nothing is dropped).
+	tags, err := store.CheckTags(strings.Split(r.PostFormValue("tags"), ","))
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
 	if err := s.Store.SetTags(r.Context(), id, tags); err != nil {
 		s.error(w, r, err)
 		return
