@@ -107,6 +107,11 @@ func (w *jsonWalker) document(t reflect.Type) *FieldError {
 	if len(bytes.TrimSpace(w.data)) == 0 {
 		return &FieldError{Field: w.doc, Message: "is empty; expected JSON"}
 	}
+	if !json.Valid(w.data) {
+		// Malformed JSON first, as encoding/json does: a truncated or
+		// broken file is the problem to fix, whatever it holds before.
+		t = nil
+	}
 	for t != nil && t.Kind() == reflect.Pointer {
 		t = t.Elem()
 	}

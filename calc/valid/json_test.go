@@ -1,11 +1,15 @@
 package valid
 
 import (
+	"bytes"
 	"encoding/json"
 	"errors"
+	"io"
+	"reflect"
 	"regexp"
 	"strings"
 	"testing"
+	"unicode/utf8"
 )
 
 type jsonGas struct {
@@ -116,4 +120,46 @@ func TestWithinPrefixesEveryField(t *testing.T) {
 	if e := errors.New("x"); Within("a", e) != e {
 		t.Fatal("a foreign error must pass unchanged")
 	}
+}
+
+// DecodeJSON accepts exactly what a strict encoding/json decode accepts
+// (plus: UTF-8 only, one value), and every refusal is found by the walk,
+// not the fallback, and names no Go type.
+func FuzzDecodeJSON(f *testing.F) {
+	for _, s := range []string{
+		`{"cases":[{"name":"a","gas":{"pressure_pa":1e5},"inputs":{"x":1},"edges_m":[1,2],"case":{"any":[1]}}]}`,
+		`{"cases":[{"gas":{"foo":1}}]}`, `{"cases":[{"bins":1.5}]}`, `{"cases":"x"}`, `[]`, `{"cases":[]} {}`,
+		"{\"cases\":[{\"name\":\"\xff\"}]}", `{"CASES":[{"Name":"a","BINS":2}]}`, `{"cases":[{"bins":-0}]}`, `null`,
+		`{"cases":[null,{"gas":null}]}`, `{"cases":[{"no_transition":null,"edges_m":[null]}]}`,
+	} {
+		f.Add([]byte(s))
+	}
+	f.Fuzz(func(t *testing.T, data []byte) {
+		var got jsonBundle
+		err := DecodeJSON(data, &got, "bundle")
+		var want jsonBundle
+		dec := json.NewDecoder(bytes.NewReader(data))
+		dec.DisallowUnknownFields()
+		jerr := dec.Decode(&want)
+		if jerr == nil {
+			if _, terr := dec.Token(); terr != io.EOF || !utf8.Valid(data) {
+				jerr = errNotClean
+			}
+		}
+		if (err == nil) != (jerr == nil) {
+			t.Fatalf("%q: DecodeJSON %v, encoding/json %v", data, err, jerr)
+		}
+		if err == nil {
+			return
+		}
+		var fe *FieldError
+		if !errors.As(err, &fe) || goTypeName.MatchString(fe.Message) {
+			t.Fatalf("%q: %v", data, err)
+		}
+		w := &jsonWalker{data: data, dec: json.NewDecoder(bytes.NewReader(data)), doc: "bundle"}
+		w.dec.UseNumber()
+		if w.document(reflect.TypeOf(&got)) == nil {
+			t.Fatalf("%q: the walk found nothing; encoding/json said %v", data, jerr)
+		}
+	})
 }
