@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"net/http"
+	"net/url"
 	"slices"
 	"strconv"
 
@@ -22,6 +23,17 @@ const pageSize = 50
 // handleLibrary serves GET /cases.
 func (s *Server) handleLibrary(w http.ResponseWriter, r *http.Request) {
 	q := r.URL.Query()
+	v, err := s.libraryView(r, q)
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	v.Chrome.Flash = q.Get("flash")
+	s.render(w, r, http.StatusOK, v.Chrome, views.LibraryPage(v))
+}
+
+// libraryView is the library page for the filters and page in q.
+func (s *Server) libraryView(r *http.Request, q url.Values) (views.LibraryView, error) {
 	page, _ := strconv.Atoi(q.Get("page"))
 	page = max(page, 1)
 	opts := store.ListOptions{
@@ -31,24 +43,22 @@ func (s *Server) handleLibrary(w http.ResponseWriter, r *http.Request) {
 	}
 	rows, total, err := s.Store.ListCases(r.Context(), opts)
 	if err != nil {
-		s.error(w, r, err)
-		return
+		return views.LibraryView{}, err
 	}
 	v := views.LibraryView{
-		Chrome: views.Chrome{Title: "Case library", Nav: "library", Display: display(r), Flash: q.Get("flash")},
+		Chrome: views.Chrome{Title: "Case library", Nav: "library", Display: display(r)},
 		Total:  total, Query: opts.Query, Fluid: opts.Fluid, Tag: opts.Tag, Sort: opts.Sort, Trash: opts.Trash,
 		Fluids: fluidOptions(), Page: page, Pages: (total + pageSize - 1) / pageSize,
 		Family: opts.Family, Families: familyOptions(),
 	}
 	if v.TagOptions, err = s.tagOptions(r); err != nil {
-		s.error(w, r, err)
-		return
+		return views.LibraryView{}, err
 	}
 	for _, c := range rows {
 		v.Rows = append(v.Rows, views.CaseRow{ID: c.ID, Name: c.Name, Fluid: c.Fluid, Model: modelLabel(c.Model, c.Family),
 			Revision: c.Revision, Updated: c.UpdatedAt, Tags: c.Tags})
 	}
-	s.render(w, r, http.StatusOK, v.Chrome, views.LibraryPage(v))
+	return v, nil
 }
 
 func modelLabel(model, family string) string {

@@ -5,9 +5,11 @@ import (
 	"fmt"
 	"net/http"
 	"net/url"
+	"slices"
 	"strconv"
 	"strings"
 
+	"fogbench/calc"
 	"fogbench/calc/atomize"
 	"fogbench/store"
 	"fogbench/views"
@@ -47,6 +49,10 @@ func (s *Server) handleCaseRename(w http.ResponseWriter, r *http.Request) {
 		http.Redirect(w, r, withFlash(backTo(r, id), ce.Error()+"; not renamed, look again"), http.StatusSeeOther)
 		return
 	}
+	if fes := calc.FieldErrors(err); len(fes) == 1 && fes[0].Field == "name" {
+		s.refuseRowInput(w, r, id, "name", r.PostFormValue("name"), err)
+		return
+	}
 	if err != nil {
 		s.error(w, r, err)
 		return
@@ -65,7 +71,7 @@ func (s *Server) handleCaseTags(w http.ResponseWriter, r *http.Request) {
 	// or not plain text, is a 400 that says which (nothing is dropped).
 	tags, err := store.CheckTags(strings.Split(r.PostFormValue("tags"), ","))
 	if err != nil {
-		s.error(w, r, err)
+		s.refuseRowInput(w, r, id, "tags", r.PostFormValue("tags"), err)
 		return
 	}
 	if err := s.Store.SetTags(r.Context(), id, tags); err != nil {
@@ -73,6 +79,34 @@ func (s *Server) handleCaseTags(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	http.Redirect(w, r, withFlash(backTo(r, id), fmt.Sprintf("Case %d tagged: %s", id, strings.Join(tags, ", "))), http.StatusSeeOther)
+}
+
+// refuseRowInput answers a refused rename or tags of a library row with
+// 400 and the library page it came from, that row's actions open with what
+// was typed and the message beside the field; nothing was saved.
+func (s *Server) refuseRowInput(w http.ResponseWriter, r *http.Request, id int64, field, typed string, err error) {
+	var q url.Values
+	if u, perr := url.Parse(backTo(r, id)); perr == nil && u.Path == "/cases" {
+		q = u.Query()
+	}
+	v, verr := s.libraryView(r, q)
+	if verr != nil {
+		s.error(w, r, verr)
+		return
+	}
+	if !slices.ContainsFunc(v.Rows, func(row views.CaseRow) bool { return row.ID == id }) {
+		s.error(w, r, err) // not on that page: the message alone
+		return
+	}
+	msg := calc.ErrorMessage(err)
+	if fes := calc.FieldErrors(err); len(fes) > 0 {
+		msg = fes[0].Message
+		if fes[0].Value != "" {
+			msg += " (got " + fes[0].Value + ")"
+		}
+	}
+	v.Refused = &views.RowInput{ID: id, Field: field, Value: typed, Message: msg + "; nothing was saved."}
+	s.render(w, r, http.StatusBadRequest, v.Chrome, views.LibraryPage(v))
 }
 
 // handleCaseTrash serves POST /cases/{id}/trash.

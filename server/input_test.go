@@ -11,6 +11,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/PuerkitoBio/goquery"
+
 	"fogbench/store"
 )
 
@@ -110,7 +112,7 @@ func TestJSONErrorsNameTheFieldAtEveryEntry(t *testing.T) {
 		{"POST", "/api/atomize", strings.Replace(atomizeBody, `"fluid":"water"`, `"fluid":"mine","custom_fluid":{"id":"mine","vapor_pressure":{"form":1}}`, 1), "custom_fluid.vapor_pressure.form", "must be text"},
 		{"POST", "/api/atomize", strings.Replace(atomizeBody, `"fluid":"water"`, `"properties":{"liquid_density_kg_m3":true}`, 1), "properties.liquid_density_kg_m3", "must be a number"},
 		{"POST", "/api/atomize", `[` + atomizeBody + `]`, "request", "must be an object"},
-		{"POST", "/api/atomize/solve", strings.Replace(atomizeBody, `"fluid":"water"`, `"fluid":"water","unknown":"delta_p_pa","target":{"smd":5e-5}}`, 1), "target.smd", "unknown field"},
+		{"POST", "/api/atomize/solve", strings.Replace(atomizeBody, `"fluid":"water"`, `"fluid":"water","unknown":"delta_p_pa","target":{"smd":5e-5}`, 1), "target.smd", "unknown field"},
 		{"POST", "/api/import", spoilBundle(t, ts.URL, func(cs []any) { cs[0].(map[string]any)["uid"] = 1 }), "cases[0].uid", "must be text"},
 		{"POST", "/api/import", spoilBundle(t, ts.URL, func(cs []any) {
 			cs[1].(map[string]any)["case"].(map[string]any)["gas"].(map[string]any)["foo"] = 1
@@ -173,10 +175,14 @@ func TestCaseNamesRefuseControlCharactersEverywhere(t *testing.T) {
 		if resp.StatusCode != http.StatusUnprocessableEntity || !strings.Contains(string(page), `data-testid="error-name"`) {
 			t.Errorf("form name %q: status %d, no message beside the name", name, resp.StatusCode)
 		}
-		resp = postForm(t, c, ts.URL+"/cases/1/rename", url.Values{"name": {name}, "revision": {"1"}})
+		resp = postForm(t, c, ts.URL+"/cases/1/rename", url.Values{"name": {name}, "revision": {"1"}, "back": {"/cases"}})
+		doc, err := goquery.NewDocumentFromReader(resp.Body)
 		resp.Body.Close()
-		if resp.StatusCode != http.StatusBadRequest {
-			t.Errorf("rename to %q: status %d", name, resp.StatusCode)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if resp.StatusCode != http.StatusBadRequest || doc.Find(`form[action="/cases/1/rename"] [data-testid=error-name]`).Length() != 1 {
+			t.Errorf("rename to %q: status %d, no message beside the name", name, resp.StatusCode)
 		}
 	}
 	if after, _ := st.CountCases(ctx); after != before {
@@ -198,7 +204,7 @@ func TestTagsAreCappedWithAMessage(t *testing.T) {
 	}
 	c := client(t)
 	setTags := func(tags []string) (int, string) {
-		resp := postForm(t, c, ts.URL+"/cases/1/tags", url.Values{"tags": {strings.Join(tags, ",")}})
+		resp := postForm(t, c, ts.URL+"/cases/1/tags", url.Values{"tags": {strings.Join(tags, ",")}, "back": {"/cases?sort=name"}})
 		defer resp.Body.Close()
 		page, _ := io.ReadAll(resp.Body)
 		return resp.StatusCode, string(page)
@@ -219,6 +225,20 @@ func TestTagsAreCappedWithAMessage(t *testing.T) {
 		code, page := setTags(tc.tags)
 		if code != http.StatusBadRequest || !strings.Contains(page, tc.message) {
 			t.Errorf("%d tags: status %d, want 400 saying %q", len(tc.tags), code, tc.message)
+		}
+		// The library page comes back with the row open, what was typed in
+		// the field and the message beside it.
+		doc, err := goquery.NewDocumentFromReader(strings.NewReader(page))
+		if err != nil {
+			t.Fatal(err)
+		}
+		row := doc.Find(`form[action="/cases/1/tags"]`)
+		// (HTML shows a NUL as U+FFFD.)
+		if got, _ := row.Find(`input[name=tags]`).Attr("value"); got != strings.ReplaceAll(strings.Join(tc.tags, ","), "\x00", "\ufffd") {
+			t.Errorf("%d tags: the field shows %q, not what was typed", len(tc.tags), got)
+		}
+		if !strings.Contains(row.Find(`[data-testid=error-tags]`).Text(), tc.message) || row.Closest("details[open]").Length() != 1 {
+			t.Errorf("%d tags: no message beside the open field", len(tc.tags))
 		}
 	}
 	if rec, _ := st.GetCase(ctx, 1); strings.Join(rec.Tags, ",") != strings.Join(orig.Tags, ",") {
