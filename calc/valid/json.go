@@ -97,9 +97,10 @@ var (
 )
 
 type jsonWalker struct {
-	data []byte
-	dec  *json.Decoder
-	doc  string
+	data   []byte
+	dec    *json.Decoder
+	doc    string
+	fields map[reflect.Type]map[string]reflect.Type // structFields, per type
 }
 
 // document walks the one top-level value and what follows it.
@@ -222,7 +223,13 @@ func (w *jsonWalker) object(t reflect.Type, path string) *FieldError {
 	switch {
 	case t == nil:
 	case t.Kind() == reflect.Struct:
-		fields = structFields(t)
+		if fields = w.fields[t]; fields == nil {
+			if w.fields == nil {
+				w.fields = map[reflect.Type]map[string]reflect.Type{}
+			}
+			fields = structFields(t)
+			w.fields[t] = fields
+		}
 	case t.Kind() == reflect.Map:
 		elem = t.Elem()
 	default:
@@ -261,7 +268,7 @@ func (w *jsonWalker) list(t reflect.Type, path string) *FieldError {
 		}
 	}
 	for i := 0; w.dec.More(); i++ {
-		if fe := w.value(elem, fmt.Sprintf("%s[%d]", path, i)); fe != nil {
+		if fe := w.value(elem, path+"["+strconv.Itoa(i)+"]"); fe != nil {
 			return fe
 		}
 	}
