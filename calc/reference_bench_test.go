@@ -23,7 +23,7 @@ import (
 // come from two different quadratures of the shrinkage time, both inverted
 // by cubic Hermites with exact slopes (1e-5 relative, 1e-6 absolute in
 // evaporated fraction, 1e-5 of the initial D32 for the history diameters;
-// measured worst 4.5e-6, 2.8e-7 and well under 1e-5). When the two differ,
+// measured worst 4.5e-6, 2.8e-7 and 1.1e-7). When the two differ,
 // docs/bench/shrinkage_check.py decides which is wrong by adaptive
 // quadrature: on "heptane, stagnant, 2 bar" it gives t50 = 0.0384233423285 s,
 // fogbench 3.0e-9 and the reference 2.1e-10 from it (the reference's earlier
