@@ -352,7 +352,10 @@ def history(drops, d0, w, steps=200, max_time=0.0):
         pos = tau > 0
         v = np.log(tau[pos])
         below = v < math.log(G[0])
-        lnd = np.where(below, u[0] + (v - math.log(G[0])) / p0, lnd_of_lnG(np.maximum(v, math.log(G[0]))))
+        # v = ln(life) of the largest class may round an ulp past the last
+        # node, where the interpolant (extrapolate=False) gives NaN.
+        lnd = np.where(below, u[0] + (v - math.log(G[0])) / p0,
+                       lnd_of_lnG(np.clip(v, math.log(G[0]), math.log(G[-1]))))
         out[pos] = np.exp(lnd)
         return out
 
