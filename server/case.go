@@ -273,7 +273,7 @@ func isFormInput(name string) bool {
 	}
 	switch name {
 	case "name", "notes", "fluid", "gas", "vapor", "model", "bins", "spacing", "edges", "fractions",
-		"ln_basis", "bins_basis", "convection", "mass_flow":
+		"ln_basis", "bins_basis", "convection", "mass_flow", "heating", "transition":
 		return true
 	}
 	for _, f := range numberFields {
@@ -298,6 +298,15 @@ func (s *Server) readCaseForm(r *http.Request) (calc.Case, caseForm, valid.Error
 		return calc.Case{}, caseForm{}, nil, err
 	}
 	c, cf := parseCaseForm(r.PostForm)
+	if len(cf.Errors) == 0 {
+		if base, ok := s.formBase(r); ok {
+			merged, err := keepUnchanged(base, c, display(r))
+			if err != nil {
+				return c, cf, nil, err
+			}
+			c = merged
+		}
+	}
 	s.embedCustomFluid(r.Context(), &c)
 	errs := cf.Errors
 	if len(errs) == 0 {
@@ -312,6 +321,27 @@ func (s *Server) readCaseForm(r *http.Request) (calc.Case, caseForm, valid.Error
 		}
 	}
 	return c, cf, errs, nil
+}
+
+// formBase is the stored revision a submitted case form was opened from
+// (the case of the route, else the form's case_id, and its revision field),
+// so that keepUnchanged can carry what the user did not change. A new case,
+// or a revision the library does not hold, has none.
+func (s *Server) formBase(r *http.Request) (calc.Case, bool) {
+	raw := chi.URLParam(r, "id")
+	if raw == "" {
+		raw = r.PostForm.Get("case_id")
+	}
+	id, _ := strconv.ParseInt(raw, 10, 64)
+	rev, _ := strconv.Atoi(r.PostForm.Get("revision"))
+	if id <= 0 || rev <= 0 {
+		return calc.Case{}, false
+	}
+	old, err := s.Store.GetRevision(r.Context(), id, rev)
+	if err != nil {
+		return calc.Case{}, false
+	}
+	return old.Case, true
 }
 
 // handleCaseCreate serves POST /cases.
