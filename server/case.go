@@ -170,7 +170,7 @@ func inputFigures(c calc.Case, d views.Display) []views.Figure {
 	if l, err := fluid.Lookup(c.Fluid); err == nil {
 		name = l.Name
 	}
-	figs := []views.Figure{{Label: "Liquid", Value: name}, {Label: "Drop temperature", Value: dropTemperatureModel(c, d)}}
+	figs := append([]views.Figure{{Label: "Liquid", Value: name}}, dropTemperatureModel(c, d)...)
 	figs = append(figs,
 		views.Figure{Label: "Gas", Value: c.Gas.ID},
 		views.Figure{Label: "Pressure", Value: d.Quantity(units.Pressure, c.Gas.PressurePa, 6)},
@@ -240,20 +240,23 @@ func inputFigures(c calc.Case, d views.Display) []views.Figure {
 
 // dropTemperatureModel states how the drop temperature was computed: fixed,
 // steady per class, or transient from the injection temperature (then also
-// what the per-class table uses).
-func dropTemperatureModel(c calc.Case, d views.Display) string {
+// the temperature of the size-class table, which is fixed or steady).
+func dropTemperatureModel(c calc.Case, d views.Display) []views.Figure {
 	fixed := "steady (solved per class)"
 	if c.LiquidTemperatureK != nil {
 		fixed = "fixed at " + d.Quantity(units.Temperature, *c.LiquidTemperatureK, 5)
 	}
 	if c.Heating != "transient" {
-		return fixed
+		return []views.Figure{{Label: "Drop temperature", Value: fixed}}
 	}
 	inj := "the injection temperature"
 	if c.InjectionTemperatureK != nil {
 		inj = d.Quantity(units.Temperature, *c.InjectionTemperatureK, 5)
 	}
-	return "transient from " + inj + " at injection; size-class table " + fixed
+	return []views.Figure{
+		{Label: "Drop temperature", Value: "transient from " + inj + " at injection"},
+		{Label: "Size-class table at", Value: fixed},
+	}
 }
 
 // convectionNames are the case file's convection models as the form and

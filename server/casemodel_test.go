@@ -53,6 +53,7 @@ func TestCasePageAndReportsStateTheModel(t *testing.T) {
 	}{
 		{transient, map[string]string{
 			"Drop temperature":            "transient from 26.85 °C at injection",
+			"Size-class table at":         "steady (solved per class)",
 			"Convection":                  "Frössling",
 			"Transition correction":       "Fuchs–Sutugin, on",
 			"Accommodation coefficient α": "0.04",
