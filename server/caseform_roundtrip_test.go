@@ -736,3 +736,51 @@ func implicitDefaults(t *testing.T, doc string) string {
 	}
 	return string(b)
 }
+
+// The inputs added for the model options take their messages beside them,
+// in the form's words, and keep what the user typed.
+func TestCaseFormModelInputsMarkErrors(t *testing.T) {
+	ts, _ := newTestServer(t)
+	hc := client(t)
+	for _, tc := range []struct {
+		set   map[string]string
+		field string // data-testid error-<field>
+	}{
+		{map[string]string{"accommodation": "2"}, "accommodation"},
+		{map[string]string{"heating": "transient"}, "injection_temperature"},
+		{map[string]string{"max_time": "-3", "max_time_unit": "ms"}, "max_time"},
+		{map[string]string{"d32": "0.000001", "d32_unit": "µm"}, "d32"},
+		{map[string]string{"injection_temperature": "warm"}, "injection_temperature"},
+	} {
+		form := validForm()
+		for k, v := range tc.set {
+			form.Set(k, v)
+		}
+		resp := postForm(t, hc, ts.URL+"/cases", form)
+		doc, err := goquery.NewDocumentFromReader(resp.Body)
+		resp.Body.Close()
+		if err != nil {
+			t.Fatal(err)
+		}
+		if resp.StatusCode != http.StatusUnprocessableEntity {
+			t.Errorf("%v: status %d, want 422", tc.set, resp.StatusCode)
+			continue
+		}
+		if msg := doc.Find(`[data-testid="error-` + tc.field + `"]`).Text(); msg == "" {
+			t.Errorf("%v: no message beside %s; form errors: %q", tc.set, tc.field, doc.Find(".form-errors").Text())
+		}
+		for k, v := range tc.set {
+			if strings.HasSuffix(k, "_unit") {
+				continue
+			}
+			sel := doc.Find(`[name="` + k + `"]`)
+			got := sel.AttrOr("value", "")
+			if goquery.NodeName(sel) == "select" {
+				got = sel.Find("option[selected]").AttrOr("value", "")
+			}
+			if got != v {
+				t.Errorf("%v: %s came back as %q", tc.set, k, got)
+			}
+		}
+	}
+}
