@@ -20,6 +20,7 @@ import (
 	"fogbench/calc"
 	"fogbench/calc/atomize"
 	"fogbench/calc/fluid"
+	"fogbench/calc/sizedist"
 	"fogbench/store"
 )
 
@@ -782,5 +783,23 @@ func TestCaseFormModelInputsMarkErrors(t *testing.T) {
 				t.Errorf("%v: %s came back as %q", tc.set, k, got)
 			}
 		}
+	}
+}
+
+// Using a fit of measured classes replaces a D32 the form held, which
+// would otherwise size the model instead of the fitted parameters.
+func TestUseFitClearsD32(t *testing.T) {
+	b, err := sizedist.FromFractions([]float64{10e-6, 20e-6, 40e-6, 80e-6}, []float64{0.2, 0.5, 0.3}, sizedist.Basis("volume"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	fit, err := sizedist.Fit(b, "rosin-rammler")
+	if err != nil {
+		t.Fatal(err)
+	}
+	vals, us := map[string]string{"model": "log-normal", "d32": "35", "bins": "30"}, map[string]string{"d32": "µm"}
+	useFit(vals, us, fit, b)
+	if vals["model"] != "rosin-rammler" || vals["x"] == "" || vals["d32"] != "" {
+		t.Errorf("after using the fit: model %q, x %q, d32 %q", vals["model"], vals["x"], vals["d32"])
 	}
 }
