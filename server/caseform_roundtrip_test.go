@@ -479,8 +479,12 @@ func formSubmission(form *goquery.Selection) url.Values {
 				}
 			case "file":
 				vals.Add(name, "")
-			default:
+			case "text", "search", "tel", "url", "email", "password":
+				// Value sanitization strips line breaks from these.
 				vals.Add(name, strings.NewReplacer("\r", "", "\n", "").Replace(el.AttrOr("value", "")))
+			default:
+				// Hidden and other inputs keep them, sent as CRLF.
+				vals.Add(name, crlf.Replace(el.AttrOr("value", "")))
 			}
 		}
 	})
@@ -801,5 +805,60 @@ func TestUseFitClearsD32(t *testing.T) {
 	useFit(vals, us, fit, b)
 	if vals["model"] != "rosin-rammler" || vals["x"] == "" || vals["d32"] != "" {
 		t.Errorf("after using the fit: model %q, x %q, d32 %q", vals["model"], vals["x"], vals["d32"])
+	}
+}
+
+// The reported loss: a transient case made through the API, with only its
+// notes edited in the form, lost heating, injection temperature and
+// accommodation coefficient, and its t50 changed. An edit now changes what
+// the user changed (notes; then the pressure, in the unit chosen) and
+// nothing else, and the results stay those of the same model.
+func TestEditNotesKeepsTransientModel(t *testing.T) {
+	ts, st := newTestServer(t)
+	hc := client(t)
+	ctx := context.Background()
+	tinj := 300.0
+	c := calc.Case{Format: calc.CaseFormat, Name: "Heptane, transient", Fluid: "n-heptane", Heating: "transient",
+		InjectionTemperatureK: &tinj,
+		Gas:                   calc.Gas{ID: "air", PressurePa: 2e5, TemperatureK: 600},
+		Distribution:          calc.Distribution{Model: "rosin-rammler", XM: 30e-6, Q: 2.5, Bins: 12},
+		Evaporation:           calc.Evaporation{AccommodationCoef: 0.04}}
+	rec, err := st.CreateCase(ctx, c, "test")
+	if err != nil {
+		t.Fatal(err)
+	}
+	before, err := calc.Evaluate(rec.Case)
+	if err != nil {
+		t.Fatal(err)
+	}
+
+	action, vals := editFormValues(t, hc, ts.URL, rec.ID)
+	vals.Set("notes", "checked against the rig on Tuesday")
+	savedID(t, hc, ts.URL+action, vals)
+	got, err := st.GetCase(ctx, rec.ID)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := c
+	want.Notes = "checked against the rig on Tuesday"
+	if got.Revision != 2 || canonical(t, got.Case) != canonical(t, want) {
+		t.Fatalf("revision %d after editing the notes:\n%s", got.Revision, strings.Join(sameWithin(t, canonical(t, want), canonical(t, got.Case), 0), "\n"))
+	}
+	after, err := calc.Evaluate(got.Case)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if *after.Summary.T50S != *before.Summary.T50S {
+		t.Errorf("t50 %g s before the edit, %g s after", *before.Summary.T50S, *after.Summary.T50S)
+	}
+
+	action, vals = editFormValues(t, hc, ts.URL, rec.ID)
+	vals.Set("pressure", "3")
+	vals.Set("pressure_unit", "bar")
+	savedID(t, hc, ts.URL+action, vals)
+	got, _ = st.GetCase(ctx, rec.ID)
+	want.Gas.PressurePa = 3e5
+	if got.Revision != 3 || canonical(t, got.Case) != canonical(t, want) {
+		t.Fatalf("revision %d after changing the pressure:\n%s", got.Revision, strings.Join(sameWithin(t, canonical(t, want), canonical(t, got.Case), 0), "\n"))
 	}
 }
