@@ -51,6 +51,9 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	cmd := "serve"
 	if len(args) > 0 && len(args[0]) > 0 && args[0][0] != '-' {
 		cmd, args = args[0], args[1:]
+	} else if len(args) > 0 && isHelpFlag(args[0]) {
+		// "fogbench -h" asks about fogbench, not about serve's flags.
+		cmd = "help"
 	}
 	switch cmd {
 	case "serve":
@@ -73,6 +76,16 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	return 2
 }
 
+// isHelpFlag reports whether arg is one of the spellings of a request for
+// help that the flag package answers.
+func isHelpFlag(arg string) bool {
+	switch arg {
+	case "-h", "-help", "--help", "--h":
+		return true
+	}
+	return false
+}
+
 const usage = `usage:
   fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert CERT.pem -tls-key KEY.pem]
   fogbench eval [FILE|-]            evaluate a case file (one case or an array) and print the results as JSON
@@ -81,7 +94,9 @@ const usage = `usage:
   fogbench report CASE-ID -o FILE.pdf [-db fogbench.db] [-paper a4|letter]   PDF report of a stored case
   fogbench migrate-store -from LIB -to LIB   copy a whole library into an empty one (SQLite file or postgres:// URL)
 
--db takes a SQLite file or a postgres://USER@HOST/DB URL (docs/stores.md).
+-db takes a SQLite file or a postgres://USER@HOST/DB URL (docs/stores.md);
+backup and restore work on SQLite files (a PostgreSQL library is backed up
+with pg_dump). "fogbench COMMAND -h" lists a command's flags.
 `
 
 func serve(args []string, stderr io.Writer) int {
@@ -414,7 +429,7 @@ func oneLine(err error) string {
 func backupCmd(args []string, stderr io.Writer) int {
 	fs := flag.NewFlagSet("backup", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	dbPath := fs.String("db", "fogbench.db", "SQLite case library")
+	dbPath := fs.String("db", "fogbench.db", "case library to copy: a SQLite file (a postgres:// library is backed up with pg_dump)")
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
@@ -452,7 +467,7 @@ func backupCmd(args []string, stderr io.Writer) int {
 func reportCmd(args []string, stderr io.Writer) int {
 	fs := flag.NewFlagSet("report", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	dbPath := fs.String("db", "fogbench.db", "SQLite case library")
+	dbPath := fs.String("db", "fogbench.db", "case library: a SQLite file or a postgres:// URL")
 	out := fs.String("o", "", "PDF file to write")
 	paper := fs.String("paper", "a4", "paper size: a4 or letter")
 	pos, ok := parseWithPositional(fs, args)
@@ -526,7 +541,7 @@ func loadToken(file, env string) (string, error) {
 func restoreCmd(args []string, stdout, stderr io.Writer) int {
 	fs := flag.NewFlagSet("restore", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	dbPath := fs.String("db", "fogbench.db", "SQLite case library to replace")
+	dbPath := fs.String("db", "fogbench.db", "case library to replace: a SQLite file (a postgres:// library is restored with pg_restore)")
 	pos, ok := parseWithPositional(fs, args)
 	if !ok {
 		return 2

@@ -136,6 +136,36 @@ var summaryCSVHeader = []string{
 	"t50 (s)", "t90 (s)", "t99 (s)", "drops_per_second (1/s)",
 	"kelvin_length (nm)", "d_laplace_1atm (um)", "d_enhancement_1pct (um)", "d_enhancement_10pct (um)", "kelvin_critical_diameter (um)",
 	"reference_temperature (K)", "warnings",
+	"drop_temperature_model", "liquid_temperature (K)", "injection_temperature (K)",
+	"convection", "transition_correction", "accommodation_coefficient (-)",
+}
+
+// modelCSVCells are the model columns of a summary row: how the drop
+// temperature was computed and the evaporation options, defaults spelt out.
+func modelCSVCells(c calc.Case) []csvCell {
+	tmodel := "steady"
+	if c.LiquidTemperatureK != nil {
+		tmodel = "fixed"
+	}
+	inj := csvCell{}
+	if c.Heating == "transient" {
+		tmodel = "transient"
+		inj = csvOpt(c.InjectionTemperatureK, 1)
+	}
+	e := c.Evaporation
+	conv := e.Convection
+	if conv == "" {
+		conv = "ranz-marshall"
+	}
+	transition := "fuchs-sutugin"
+	if e.NoTransition {
+		transition = "off"
+	}
+	alpha := e.AccommodationCoef
+	if alpha == 0 {
+		alpha = 1
+	}
+	return []csvCell{textCell(tmodel), csvOpt(c.LiquidTemperatureK, 1), inj, textCell(conv), textCell(transition), csvNum(alpha)}
 }
 
 func summaryCSVRow(rec store.CaseRecord, res *calc.Result) []csvCell {
@@ -144,7 +174,7 @@ func summaryCSVRow(rec store.CaseRecord, res *calc.Result) []csvCell {
 	if c.KelvinCriticalRadiusM != nil {
 		crit = csvNum(2 * *c.KelvinCriticalRadiusM * 1e6)
 	}
-	return []csvCell{
+	row := []csvCell{
 		csvInt(rec.ID), csvInt(int64(rec.Revision)), textCell(rec.Case.Name),
 		csvNum(s.D10M * 1e6), csvNum(s.D20M * 1e6), csvNum(s.D30M * 1e6), csvNum(s.D32M * 1e6), csvNum(s.D43M * 1e6),
 		csvNum(s.Dv10M * 1e6), csvNum(s.Dv50M * 1e6), csvNum(s.Dv90M * 1e6), csvNum(s.RelativeSpan),
@@ -152,6 +182,7 @@ func summaryCSVRow(rec store.CaseRecord, res *calc.Result) []csvCell {
 		csvNum(c.KelvinLengthM * 1e9), csvNum(c.LaplaceOneAtmDM * 1e6), csvOpt(c.Enhancement1PctDM, 1e6), csvOpt(c.Enhancement10PctDM, 1e6), crit,
 		csvNum(c.ReferenceTemperatureK), csvInt(int64(len(res.Warnings))),
 	}
+	return append(row, modelCSVCells(rec.Case)...)
 }
 
 // evaluatedCase loads and computes the case of the route; a case that

@@ -196,6 +196,10 @@ func (v CaseView) SummaryFigures() []Figure {
 		v          *float64
 	}{{"50 % of mass evaporated", "t50", s.T50S}, {"90 % evaporated", "t90", s.T90S}, {"99 % evaporated", "t99", s.T99S}} {
 		f := Figure{Label: t.label, Symbol: t.sym, Value: "not reached", Hint: "the surroundings hold the vapor back"}
+		if end := v.Case.Evaporation.MaxTimeS; end > 0 {
+			// The case ends the history itself; it may end first.
+			f.Hint = "not by the end of the history the case sets, " + v.Display.Quantity(units.Time, end, 4)
+		}
 		if v.Result.Superheat != nil {
 			f.Value, f.Hint = "not computed", "a superheated liquid flashes; the evaporation model does not apply"
 		}
