@@ -30,7 +30,12 @@ func (s *Server) handleAPIEvaluate(w http.ResponseWriter, r *http.Request) {
 	for i, c := range cases {
 		res, err := calc.EvaluateContext(r.Context(), c)
 		if err != nil {
-			if isArray {
+			switch {
+			case isArray && len(calc.FieldErrors(err)) > 0:
+				// The list index names the case, as for a decoding error:
+				// "[1].gas.pressure_pa".
+				err = valid.Within(fmt.Sprintf("[%d]", i), err)
+			case isArray:
 				err = fmt.Errorf("case %d: %w", i+1, err)
 			}
 			s.apiError(w, r, err)
