@@ -140,7 +140,7 @@ func (s *Server) requireToken(next http.Handler) http.Handler {
 			if bearer {
 				if wait := s.failures.wait(clientKey(r)); wait > 0 {
 					w.Header().Set("Retry-After", retryAfter(wait))
-					writeJSON(w, http.StatusTooManyRequests, map[string]string{"error": "too many wrong access tokens from this address: wait " + retryAfter(wait) + " s"})
+					writeJSON(w, http.StatusTooManyRequests, map[string]string{"error": "too many wrong access tokens from this address: try again in " + retryAfter(wait) + " s"})
 					return
 				}
 				if s.tokenMatches(given) {
@@ -268,7 +268,7 @@ func (s *Server) handleLoginPost(w http.ResponseWriter, r *http.Request) {
 	if s.Token != "" {
 		if wait := s.failures.wait(clientKey(r)); wait > 0 {
 			w.Header().Set("Retry-After", retryAfter(wait))
-			v.Error = "Too many wrong access tokens from your address: wait " + retryAfter(wait) + " seconds and try again."
+			v.Error = "Too many wrong access tokens from your address: try again in " + retryAfter(wait) + " s."
 			s.render(w, r, http.StatusTooManyRequests, v.Chrome, views.LoginPage(v))
 			return
 		}
