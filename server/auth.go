@@ -135,20 +135,17 @@ func (s *Server) requireToken(next http.Handler) http.Handler {
 			next.ServeHTTP(w, r)
 			return
 		}
-		if h := r.Header.Get("Authorization"); h != "" {
-			given, bearer := strings.CutPrefix(h, "Bearer ")
-			if bearer {
-				if wait := s.failures.wait(clientKey(r)); wait > 0 {
-					w.Header().Set("Retry-After", retryAfter(wait))
-					writeJSON(w, http.StatusTooManyRequests, map[string]string{"error": "too many wrong access tokens from this address: try again in " + retryAfter(wait) + " s"})
-					return
-				}
-				if s.tokenMatches(given) {
-					next.ServeHTTP(w, r)
-					return
-				}
-				s.refuseToken(r, "bearer token refused")
+		if given, bearer := strings.CutPrefix(r.Header.Get("Authorization"), "Bearer "); bearer {
+			if wait := s.failures.wait(clientKey(r)); wait > 0 {
+				w.Header().Set("Retry-After", retryAfter(wait))
+				writeJSON(w, http.StatusTooManyRequests, map[string]string{"error": "too many wrong access tokens from this address: try again in " + retryAfter(wait) + " s"})
+				return
 			}
+			if s.tokenMatches(given) {
+				next.ServeHTTP(w, r)
+				return
+			}
+			s.refuseToken(r, "bearer token refused")
 			w.Header().Set("WWW-Authenticate", `Bearer realm="fogbench", error="invalid_token"`)
 			writeJSON(w, http.StatusUnauthorized, map[string]string{"error": "the access token is not right"})
 			return
