@@ -35,7 +35,7 @@ func (s *Server) handleLibrary(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	v := views.LibraryView{
-		Chrome: views.Chrome{Title: "Case library", Nav: "library", Display: display(r), Flash: q.Get("flash")},
+		Chrome: views.Chrome{Title: "Case library", Nav: "library", Display: display(r)},
 		Total:  total, Query: opts.Query, Fluid: opts.Fluid, Tag: opts.Tag, Sort: opts.Sort, Trash: opts.Trash,
 		Fluids: fluidOptions(), Page: page, Pages: (total + pageSize - 1) / pageSize,
 		Family: opts.Family, Families: familyOptions(),
@@ -101,7 +101,6 @@ func (s *Server) handleCaseShow(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	v := s.caseView(r, rec)
-	v.Flash = r.URL.Query().Get("flash")
 	s.render(w, r, http.StatusOK, v.Chrome, views.CasePage(v))
 }
 
@@ -426,7 +425,7 @@ func (s *Server) handleCaseCreate(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved", rec.ID), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), "Saved")
 }
 
 // handleCaseEdit serves GET /cases/{id}/edit.
@@ -468,7 +467,7 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 			s.error(w, r, err)
 			return
 		}
-		http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved+as+a+new+case", rec.ID), http.StatusSeeOther)
+		s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), "Saved as a new case")
 		return
 	}
 	rec, err := s.Store.UpdateCase(r.Context(), id, base, c, s.author(r))
@@ -481,7 +480,7 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved+revision+%d", rec.ID, rec.Revision), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), fmt.Sprintf("Saved revision %d", rec.Revision))
 }
 
 // handleCaseDuplicate serves POST /cases/{id}/duplicate.
