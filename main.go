@@ -87,7 +87,7 @@ func isHelpFlag(arg string) bool {
 }
 
 const usage = `usage:
-  fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert CERT.pem -tls-key KEY.pem]
+  fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert CERT.pem -tls-key KEY.pem] [-allow-host NAME]
   fogbench eval [FILE|-]            evaluate a case file (one case or an array) and print the results as JSON
   fogbench backup [-db fogbench.db] FILE   write a consistent copy of the library (safe while serving)
   fogbench restore FILE [-db fogbench.db]  replace the library with a checked backup (stop the server first)
@@ -108,6 +108,8 @@ func serve(args []string, stderr io.Writer) int {
 	tokenFile := fs.String("token-file", "", "file holding the access token (or set FOGBENCH_TOKEN); required for a non-loopback -addr")
 	tlsCert := fs.String("tls-cert", "", "serve HTTPS with this PEM certificate (with -tls-key)")
 	tlsKey := fs.String("tls-key", "", "PEM private key of -tls-cert")
+	var allowHosts hostList
+	fs.Var(&allowHosts, "allow-host", "without a token, also answer to this host name (NAME or NAME:PORT, e.g. a reverse proxy's); repeat or separate with commas")
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
@@ -170,6 +172,7 @@ func serve(args []string, stderr io.Writer) int {
 	app := server.New(st, logger)
 	app.SecureCookies = tlsConfig != nil
 	app.Token = token
+	app.AllowedHosts = allowHosts
 	srv := newHTTPServer(*addr, app.Handler())
 	srv.TLSConfig = tlsConfig
 	ln, err := net.Listen("tcp", *addr)
@@ -514,6 +517,23 @@ func reportCmd(args []string, stderr io.Writer) int {
 	return 0
 }
 
+// hostList collects -allow-host names.
+type hostList []string
+
+func (h *hostList) String() string { return strings.Join(*h, ",") }
+
+func (h *hostList) Set(v string) error {
+	for _, n := range strings.Split(v, ",") {
+		if n = strings.TrimSpace(n); n != "" {
+			if err := server.CheckAllowedHost(n); err != nil {
+				return err
+			}
+			*h = append(*h, n)
+		}
+	}
+	return nil
+}
+
 // loadToken reads the access token from -token-file, else from
 // FOGBENCH_TOKEN. Surrounding white space (a trailing newline) is dropped.
 // The token is never printed.
@@ -530,8 +550,10 @@ func loadToken(file, env string) (string, error) {
 		tok = string(data)
 	}
 	tok = strings.TrimSpace(tok)
-	if tok != "" && len(tok) < server.MinTokenLen {
-		return "", fmt.Errorf("the access token is too short: use at least %d characters (for example: head -c 24 /dev/urandom | base64)", server.MinTokenLen)
+	if tok != "" {
+		if err := server.CheckToken(tok); err != nil {
+			return "", err
+		}
 	}
 	return tok, nil
 }

@@ -22,13 +22,11 @@ const pageSize = 50
 
 // handleLibrary serves GET /cases.
 func (s *Server) handleLibrary(w http.ResponseWriter, r *http.Request) {
-	q := r.URL.Query()
-	v, err := s.libraryView(r, q)
+	v, err := s.libraryView(r, r.URL.Query())
 	if err != nil {
 		s.error(w, r, err)
 		return
 	}
-	v.Chrome.Flash = q.Get("flash")
 	s.render(w, r, http.StatusOK, v.Chrome, views.LibraryPage(v))
 }
 
@@ -111,7 +109,6 @@ func (s *Server) handleCaseShow(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	v := s.caseView(r, rec)
-	v.Flash = r.URL.Query().Get("flash")
 	s.render(w, r, http.StatusOK, v.Chrome, views.CasePage(v))
 }
 
@@ -436,7 +433,7 @@ func (s *Server) handleCaseCreate(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved", rec.ID), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), "Saved")
 }
 
 // handleCaseEdit serves GET /cases/{id}/edit.
@@ -478,7 +475,7 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 			s.error(w, r, err)
 			return
 		}
-		http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved+as+a+new+case", rec.ID), http.StatusSeeOther)
+		s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), "Saved as a new case")
 		return
 	}
 	rec, err := s.Store.UpdateCase(r.Context(), id, base, c, s.author(r))
@@ -491,7 +488,7 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved+revision+%d", rec.ID, rec.Revision), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), fmt.Sprintf("Saved revision %d", rec.Revision))
 }
 
 // handleCaseDuplicate serves POST /cases/{id}/duplicate.

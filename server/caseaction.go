@@ -19,19 +19,10 @@ import (
 // when that is a library URL, else the case.
 func backTo(r *http.Request, id int64) string {
 	b := r.PostFormValue("back")
-	if strings.HasPrefix(b, "/cases") && !strings.HasPrefix(b, "//") && !strings.ContainsAny(b, "\\\r\n") {
+	if strings.HasPrefix(b, "/cases") && safeNext(b) == b {
 		return b
 	}
 	return fmt.Sprintf("/cases/%d", id)
-}
-
-// withFlash adds a one-line notice to a local URL.
-func withFlash(u, msg string) string {
-	sep := "?"
-	if strings.Contains(u, "?") {
-		sep = "&"
-	}
-	return u + sep + "flash=" + url.QueryEscape(msg)
 }
 
 // handleCaseRename serves POST /cases/{id}/rename: a new revision with the
@@ -46,7 +37,7 @@ func (s *Server) handleCaseRename(w http.ResponseWriter, r *http.Request) {
 	rec, err := s.Store.RenameCase(r.Context(), id, base, r.PostFormValue("name"), s.author(r))
 	var ce *store.ConflictError
 	if errors.As(err, &ce) {
-		http.Redirect(w, r, withFlash(backTo(r, id), ce.Error()+"; not renamed, look again"), http.StatusSeeOther)
+		s.redirectWithFlash(w, r, backTo(r, id), ce.Error()+"; not renamed, look again")
 		return
 	}
 	if fes := calc.FieldErrors(err); len(fes) == 1 && fes[0].Field == "name" {
@@ -57,7 +48,7 @@ func (s *Server) handleCaseRename(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	http.Redirect(w, r, withFlash(backTo(r, id), fmt.Sprintf("Case %d renamed to %q (revision %d)", id, rec.Case.Name, rec.Revision)), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, backTo(r, id), fmt.Sprintf("Case %d renamed to %q (revision %d)", id, rec.Case.Name, rec.Revision))
 }
 
 // handleCaseTags serves POST /cases/{id}/tags with tags separated by commas.
@@ -78,7 +69,7 @@ func (s *Server) handleCaseTags(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	http.Redirect(w, r, withFlash(backTo(r, id), fmt.Sprintf("Case %d tagged: %s", id, strings.Join(tags, ", "))), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, backTo(r, id), fmt.Sprintf("Case %d tagged: %s", id, strings.Join(tags, ", ")))
 }
 
 // refuseRowInput answers a refused rename or tags of a library row with
@@ -124,7 +115,7 @@ func (s *Server) handleCaseTrash(w http.ResponseWriter, r *http.Request) {
 	if back == fmt.Sprintf("/cases/%d", id) {
 		back = "/cases"
 	}
-	http.Redirect(w, r, withFlash(back, fmt.Sprintf("Case %d moved to the trash; restore it from the trash list", id)), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, back, fmt.Sprintf("Case %d moved to the trash; restore it from the trash list", id))
 }
 
 // handleCaseRestore serves POST /cases/{id}/restore: out of the trash.
@@ -138,7 +129,7 @@ func (s *Server) handleCaseRestore(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	http.Redirect(w, r, withFlash(backTo(r, id), fmt.Sprintf("Case %d restored from the trash", id)), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, backTo(r, id), fmt.Sprintf("Case %d restored from the trash", id))
 }
 
 // familyOptions lists the atomizer families for the library filter.
