@@ -55,7 +55,7 @@ func JSONError(data []byte, t reflect.Type, err error, doc string) *FieldError {
 	if fe := w.document(t); fe != nil {
 		return fe
 	}
-	return fallbackJSONError(err, doc)
+	return ExplainJSONError(err, doc)
 }
 
 // Within puts path in front of the field of every field error in err, for
@@ -422,9 +422,14 @@ func lookupField(fields map[string]reflect.Type, key string) (reflect.Type, bool
 	return nil, false
 }
 
-// fallbackJSONError translates an encoding/json error by its type alone,
-// without the Go type names its text carries.
-func fallbackJSONError(err error, doc string) *FieldError {
+// ExplainJSONError translates an encoding/json error by its type alone,
+// without the Go type names its text carries: JSONError's fallback, and the
+// translator for a reader that decodes from a stream and so has no bytes to
+// walk. It names a field as encoding/json does, dotted and without list
+// indexes, so such a reader decodes a list's elements one by one and puts
+// each index in front with Within ("cases[3].uid"); an unknown field is
+// named by its own key alone.
+func ExplainJSONError(err error, doc string) *FieldError {
 	var te *json.UnmarshalTypeError
 	var se *json.SyntaxError
 	switch {

@@ -98,11 +98,11 @@ func TestDecodeJSONAcceptsWhatEncodingJSONAccepts(t *testing.T) {
 func TestJSONErrorFallbackNamesNoGoType(t *testing.T) {
 	var b jsonBundle
 	err := json.Unmarshal([]byte(`{"cases":"x"}`), &b)
-	fe := fallbackJSONError(err, "bundle")
+	fe := ExplainJSONError(err, "bundle")
 	if fe.Field != "cases" || fe.Message != "must be a list" || goTypeName.MatchString(fe.Error()) {
 		t.Fatalf("fallback: %v", fe)
 	}
-	if fe := fallbackJSONError(errors.New("json: cannot unmarshal into Go value of type main.x"), "file"); goTypeName.MatchString(fe.Error()) {
+	if fe := ExplainJSONError(errors.New("json: cannot unmarshal into Go value of type main.x"), "file"); goTypeName.MatchString(fe.Error()) {
 		t.Fatalf("fallback: %v", fe)
 	}
 }
