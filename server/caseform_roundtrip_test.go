@@ -36,7 +36,6 @@ import (
 type caseLeaf struct {
 	path  string
 	index [][]int // field index per struct level; pointers to structs are followed
-	key   string  // for a map field: the key within it
 }
 
 // caseLeaves lists every field of t (calc.Case) that holds a value, in the
