@@ -247,8 +247,9 @@ func (d *Distribution) prune() {
 
 // MaxClassesPerRequest bounds the size classes one server request may ask
 // to evaluate, summed over its cases: evaluation time grows with the
-// classes (a transient 2000-class case takes seconds), and evaluation is
-// not interrupted when a client gives up.
+// classes (a transient 2000-class case takes seconds), and although
+// EvaluateContext stops when a client gives up, the work done until then
+// is spent.
 const MaxClassesPerRequest = 4000
 
 // Classes is the number of size classes the case will be evaluated in:
