@@ -484,7 +484,7 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 	// sweep checks the conditions once and shares the liquid's properties.
 	states, err := cond.NewStateSweep(fixedT)
 	if err != nil {
-		return nil, evaluationError(err, b.Diameter(0))
+		return nil, s.evaluationError(err, b.Diameter(0))
 	}
 	for i := range n {
 		if err := ctx.Err(); err != nil {
@@ -493,7 +493,7 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 		d := b.Diameter(i)
 		st, err := states.State(d)
 		if err != nil {
-			return nil, evaluationError(err, d)
+			return nil, s.evaluationError(err, d)
 		}
 		for _, w := range st.Warnings {
 			warn(w)
@@ -515,7 +515,7 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 	}
 	spray, err := cond.NewSpray(d, b.Volume, s.historyOptions(fixedT))
 	if err != nil {
-		return nil, evaluationError(err, d[n-1])
+		return nil, s.evaluationError(err, d[n-1])
 	}
 	for i, t := range spray.Lifetimes() {
 		if !math.IsInf(t, 0) && !math.IsNaN(t) {
@@ -561,17 +561,41 @@ func canceled(err error) error {
 }
 
 // evaluationError explains a failure of the evaporation model.
-func evaluationError(err error, d float64) error {
+func (s *setup) evaluationError(err error, d float64) error {
 	if errors.Is(err, context.Canceled) || errors.Is(err, context.DeadlineExceeded) {
 		return canceled(err)
 	}
 	if errors.Is(err, evap.ErrBoiling) {
 		return &Error{Code: Invalid, Message: fmt.Sprintf("The liquid boils at these conditions (drop %.3g µm): its vapor pressure reaches the gas pressure, so the quasi-steady evaporation model does not apply. Lower the liquid temperature or raise the pressure.", d*1e6), Err: err}
 	}
+	var pl *evap.PropertyLimitError
+	if errors.As(err, &pl) {
+		// The cause is kept as text only: its field (a liquid property)
+		// is no field of the case for a form to mark.
+		return &Error{Code: Invalid, Message: s.criticalLimitMessage(d), Err: errors.New(err.Error())}
+	}
 	if ErrorCode(err) == Invalid {
 		return err
 	}
 	return &Error{Code: Internal, Message: "evaluation failed", Err: fmt.Errorf("drop %.4g m: %w", d, err)}
+}
+
+// criticalLimitMessage words a surface that reached the liquid's critical
+// region, where its latent heat and surface tension vanish (they are zero
+// at the critical temperature), so the quasi-steady evaporation model (a
+// drop with a sharp surface and a latent heat) ends there. Above the
+// liquid's critical pressure nothing stops the drop heating to that point;
+// below it the curvature raise or a capped boiling surface can carry it
+// there. d is the drop diameter, m.
+func (s *setup) criticalLimitMessage(d float64) string {
+	l := s.liquid
+	p := s.c.Gas.PressurePa
+	msg := fmt.Sprintf("The drop surface (drop %.3g µm) heats into the critical region of %s (critical point %.1f K, %.3g bar), where its latent heat and surface tension vanish: the drop no longer evaporates across a surface, and this model cannot follow it.",
+		d*1e6, l.Name, l.CriticalTemperature(), l.CriticalPressure()/1e5)
+	if p >= l.CriticalPressure() {
+		msg += fmt.Sprintf(" The gas pressure (%.3g bar) is above the liquid's critical pressure, so the drop heats towards its critical point instead of settling below a boiling point.", p/1e5)
+	}
+	return msg + " Lower the gas temperature or pressure, or give a fixed liquid temperature below the critical point."
 }
 
 func (s *setup) curvature(cond *evap.Conditions, t float64) Curvature {
@@ -658,7 +682,7 @@ func (s *setup) history(ctx context.Context, spray *evap.Spray, d []float64, res
 	}
 	h, err := spray.HistoryContext(ctx, opts.MaxTime)
 	if err != nil {
-		return evaluationError(err, d[len(d)-1])
+		return s.evaluationError(err, d[len(d)-1])
 	}
 	res.Warnings = append(res.Warnings, h.Warnings...)
 	res.History = &History{TS: h.T, EvaporatedMassFraction: h.EvaporatedMassFraction, D32M: h.D32, Dv50M: h.Dv50}
