@@ -93,14 +93,20 @@ func prepare(c Case) (*setup, error) {
 		add(err)
 		s.warnings = append(s.warnings, w...)
 	}
+	if c.InjectionTemperatureK != nil && l != nil {
+		// The supply temperature of the transient drops and of an
+		// atomizer's liquid.
+		w, err := l.Check(*c.InjectionTemperatureK)
+		add(err)
+		if c.Distribution.Model == "atomizer" {
+			s.warnings = append(s.warnings, w...)
+		}
+	}
 	switch c.Heating {
 	case "", "steady":
 	case "transient":
 		if c.InjectionTemperatureK == nil {
 			add(&valid.FieldError{Field: "injection_temperature_k", Message: `is needed with "heating":"transient"`})
-		} else if l != nil {
-			_, err := l.Check(*c.InjectionTemperatureK)
-			add(err)
 		}
 	default:
 		add(&valid.FieldError{Field: "heating", Value: c.Heating, Message: `must be "steady" or "transient"`})
@@ -366,13 +372,31 @@ func checkDiameters(d Distribution) error {
 	return errs.Err()
 }
 
+// supplyTemperature is the temperature of the liquid a nozzle is fed
+// with, at which its correlations and flow take the liquid's properties:
+// injection_temperature_k, else liquid_temperature_k (a fixed drop
+// temperature is the liquid's temperature throughout), else an error
+// naming injection_temperature_k. Never the gas temperature: kerosene at
+// 700 K has a fifth of its surface tension at 300 K and a tenth of its
+// viscosity, which made a Lefebvre SMD of 1.28 µm out of 27.3 µm.
+func supplyTemperature(c Case) (float64, error) {
+	switch {
+	case c.InjectionTemperatureK != nil:
+		return *c.InjectionTemperatureK, nil
+	case c.LiquidTemperatureK != nil:
+		return *c.LiquidTemperatureK, nil
+	}
+	return 0, &valid.FieldError{Field: "injection_temperature_k",
+		Message: "is needed with an atomizer distribution: the nozzle's correlations and flow take the liquid's properties at the temperature it is supplied at (give injection_temperature_k, or liquid_temperature_k for a fixed drop temperature)"}
+}
+
 // atomizerSMD evaluates the case's nozzle and returns its chosen SMD and the
 // Rosin–Rammler spread to shape the distribution with.
 func atomizerSMD(c Case, l *fluid.Liquid, g *fluid.Gas) (*atomize.Result, float64, float64, []string, error) {
 	d := c.Distribution
-	t := c.Gas.TemperatureK
-	if c.LiquidTemperatureK != nil {
-		t = *c.LiquidTemperatureK
+	t, err := supplyTemperature(c)
+	if err != nil {
+		return nil, 0, 0, nil, err
 	}
 	props := atomize.Properties{
 		LiquidDensity: l.Density(t), LiquidViscosity: l.Viscosity(t), SurfaceTension: l.SurfaceTension(t),

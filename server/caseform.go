@@ -28,6 +28,7 @@ type formField struct {
 
 var numberFields = []formField{
 	{name: "liquid_temperature", path: "liquid_temperature_k", kind: units.Temperature, opt: func(c *calc.Case) **float64 { return &c.LiquidTemperatureK }},
+	{name: "injection_temperature", path: "injection_temperature_k", kind: units.Temperature, opt: func(c *calc.Case) **float64 { return &c.InjectionTemperatureK }},
 	{name: "pressure", path: "gas.pressure_pa", kind: units.Pressure, ref: func(c *calc.Case) *float64 { return &c.Gas.PressurePa }},
 	{name: "gas_temperature", path: "gas.temperature_k", kind: units.Temperature, ref: func(c *calc.Case) *float64 { return &c.Gas.TemperatureK }},
 	{name: "relative_velocity", path: "gas.relative_velocity_m_s", kind: units.Velocity, ref: func(c *calc.Case) *float64 { return &c.Gas.RelativeVelocityMS }},
@@ -61,8 +62,7 @@ var pathToForm = map[string]string{
 	"distribution.fraction":         "fractions",
 	"evaporation.convection":        "convection",
 	"evaporation.mass_flow_kg_s":    "mass_flow",
-	"heating":                       "liquid_temperature",
-	"injection_temperature_k":       "liquid_temperature",
+	"heating":                       "heating",
 	"custom_fluid":                  "fluid",
 }
 
@@ -170,6 +170,9 @@ func parseCaseForm(form url.Values) (calc.Case, caseForm) {
 			Spacing: cf.Values["spacing"],
 		},
 		Evaporation: calc.Evaporation{Convection: cf.Values["convection"]},
+	}
+	if cf.Values["heating"] == "transient" {
+		c.Heating = "transient"
 	}
 	if raw := cf.Values["custom_fluid_json"]; raw != "" {
 		// The liquid a case defines itself travels through the form as JSON.
@@ -309,6 +312,9 @@ func fillForm(c calc.Case, d views.Display) (valuesMap, valuesMap) {
 	vals := valuesMap{
 		"name": c.Name, "notes": c.Notes, "fluid": c.Fluid, "gas": c.Gas.ID,
 		"model": c.Distribution.Model, "spacing": c.Distribution.Spacing, "convection": c.Evaporation.Convection,
+	}
+	if c.Heating == "transient" {
+		vals["heating"] = "transient"
 	}
 	us := valuesMap{}
 	if vals["convection"] == "" {
