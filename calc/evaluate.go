@@ -88,19 +88,17 @@ func prepare(c Case) (*setup, error) {
 	add(valid.Between("gas.pressure_pa", c.Gas.PressurePa, MinPressurePa, MaxPressurePa, "Pa"))
 	add(valid.Between("gas.temperature_k", c.Gas.TemperatureK, MinGasTempK, MaxGasTempK, "K"))
 	add(valid.Between("gas.relative_velocity_m_s", c.Gas.RelativeVelocityMS, 0, MaxRelVelocityMS, "m/s"))
+	// The range warnings of the temperatures given here come with those
+	// the drops reach (stateWarnings), one per property.
 	if c.LiquidTemperatureK != nil && l != nil {
-		w, err := l.Check(*c.LiquidTemperatureK)
+		_, err := l.Check(*c.LiquidTemperatureK)
 		add(err)
-		s.warnings = append(s.warnings, w...)
 	}
 	if c.InjectionTemperatureK != nil && l != nil {
 		// The supply temperature of the transient drops and of an
 		// atomizer's liquid.
-		w, err := l.Check(*c.InjectionTemperatureK)
+		_, err := l.Check(*c.InjectionTemperatureK)
 		add(err)
-		if c.Distribution.Model == "atomizer" {
-			s.warnings = append(s.warnings, w...)
-		}
 	}
 	switch c.Heating {
 	case "", "steady":
@@ -569,10 +567,44 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 			res.Summary.DropsPerSecond = &nd
 		}
 	}
-	if err := s.history(ctx, spray, d, res); err != nil {
+	h, err := s.history(ctx, spray, d, res)
+	if err != nil {
 		return nil, err
 	}
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, b := range res.Bins {
+		lo, hi = math.Min(lo, b.SurfaceTemperatureK), math.Max(hi, b.SurfaceTemperatureK)
+	}
+	state := "the drops' steady temperature"
+	if fixedT > 0 {
+		state = "the fixed drop temperature"
+	}
+	if s.c.Heating == "transient" && h.SurfaceTemperatureMax > 0 {
+		lo, hi = math.Min(lo, h.SurfaceTemperatureMin), math.Max(hi, h.SurfaceTemperatureMax)
+		state = "the drops' temperature (from injection to steady)"
+	}
+	res.Warnings = append(res.Warnings, s.stateWarnings(lo, hi, state)...)
 	return res, nil
+}
+
+// stateWarnings are the liquid's property-range warnings over the
+// temperatures lo to hi (K) the drops reached under the case's model
+// (state says which), and the nozzle's supply temperature with an
+// atomizer: one per property, naming the temperature reached farthest
+// outside its published range. They follow the state the results were
+// computed at: a steady temperature that settles outside a fit's range
+// warns as a fixed one there does.
+func (s *setup) stateWarnings(lo, hi float64, state string) []string {
+	if s.atomizer != nil {
+		if t, err := supplyTemperature(s.c); err == nil {
+			lo, hi = math.Min(lo, t), math.Max(hi, t)
+			state += " and the nozzle's supply temperature"
+		}
+	}
+	if !(lo <= hi) {
+		return nil
+	}
+	return s.liquid.RangeWarnings(lo, hi, state)
 }
 
 // canceled is the error of an evaluation stopped by its context.
@@ -682,7 +714,7 @@ func (s *setup) historyOptions(fixedT float64) evap.HistoryOptions {
 }
 
 // history follows every class along its own d(t) and sums the spray.
-func (s *setup) history(ctx context.Context, spray *evap.Spray, d []float64, res *Result) error {
+func (s *setup) history(ctx context.Context, spray *evap.Spray, d []float64, res *Result) (evap.History, error) {
 	opts := evap.HistoryOptions{MaxTime: s.c.Evaporation.MaxTimeS}
 	if opts.MaxTime == 0 {
 		// Part of the spray never evaporates (saturated or supersaturated
@@ -706,7 +738,7 @@ func (s *setup) history(ctx context.Context, spray *evap.Spray, d []float64, res
 	}
 	h, err := spray.HistoryContext(ctx, opts.MaxTime)
 	if err != nil {
-		return s.evaluationError(err, d[len(d)-1])
+		return h, s.evaluationError(err, d[len(d)-1])
 	}
 	res.Warnings = append(res.Warnings, h.Warnings...)
 	res.History = &History{TS: h.T, EvaporatedMassFraction: h.EvaporatedMassFraction, D32M: h.D32, Dv50M: h.Dv50}
@@ -720,5 +752,5 @@ func (s *setup) history(ctx context.Context, spray *evap.Spray, d []float64, res
 		return &v
 	}
 	res.Summary.T50S, res.Summary.T90S, res.Summary.T99S = finite(h.T50), finite(h.T90), finite(h.T99)
-	return nil
+	return h, nil
 }

@@ -35,6 +35,11 @@ type History struct {
 	// evaporated, s; +Inf (with a warning) when never reached.
 	T50, T90, T99 float64
 	Warnings      []string
+	// SurfaceTemperatureMin and Max bound the surface temperatures the
+	// transient heating paths passed through (from the injection
+	// temperature to where each class joined its steady temperature), K;
+	// both 0 without transient heating.
+	SurfaceTemperatureMin, SurfaceTemperatureMax float64
 }
 
 // Distance converts the time grid into distance travelled at a constant
@@ -186,6 +191,7 @@ func (s *Spray) HistoryContext(ctx context.Context, maxTime float64) (History, e
 		if err := sp.addTransient(opts.InjectionTemperature, maxTime); err != nil {
 			return h, err
 		}
+		h.SurfaceTemperatureMin, h.SurfaceTemperatureMax = sp.transientTemperatureRange()
 	}
 	// Every drop's path to zero size passes radii below 5 nm, and for a
 	// volatile liquid radii where S·p_sat exceeds the gas pressure; those

@@ -812,3 +812,23 @@ func (sp *sprayPaths) interpTransient(tInj, horizon float64) (bool, error) {
 	}
 	return true, nil
 }
+
+// transientTemperatureRange returns the lowest and highest surface
+// temperature on the heating paths (their nodes: the Hermite interpolant
+// between them stays within the nodes' range to the integrator's
+// tolerance), for the property-range warnings.
+func (sp *sprayPaths) transientTemperatureRange() (lo, hi float64) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for _, p := range sp.tr {
+		if p == nil {
+			continue
+		}
+		for _, T := range p.T {
+			lo, hi = math.Min(lo, T), math.Max(hi, T)
+		}
+	}
+	if lo > hi {
+		return 0, 0
+	}
+	return lo, hi
+}
