@@ -181,7 +181,7 @@ func ambientVapor(g Gas, l *fluid.Liquid) (float64, error) {
 		}
 		return x, nil
 	case g.RelativeHumidity != nil:
-		if err := valid.Between("gas.relative_humidity", *g.RelativeHumidity, 0, 10, "(fraction; 1 = saturated)"); err != nil {
+		if err := valid.Between("gas.relative_humidity", *g.RelativeHumidity, 0, fluid.MaxSaturationRatio, "(saturation ratio; 1 = saturated, above 1 supersaturated)"); err != nil {
 			return 0, err
 		}
 		x, err := fluid.VaporMoleFractionFromRelativeHumidity(l, *g.RelativeHumidity, g.TemperatureK, g.PressurePa)
@@ -559,6 +559,18 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 		}
 	}
 	res.Curvature = s.curvature(cond, refT)
+	if fixedT == 0 {
+		// Each class sits at its own steady temperature. The equilibrium
+		// drop neither evaporates nor condenses, so no latent heat crosses
+		// its surface and Q = 0 puts it at the gas temperature: r* is
+		// taken there, not at the large drops' temperature (which a
+		// condensing spray warms above the gas), so that it divides the
+		// classes as their own rates do.
+		res.Curvature.KelvinCriticalRadiusM = nil
+		if r, ok, err := cond.EquilibriumRadius(s.c.Gas.TemperatureK); err == nil && ok {
+			res.Curvature.KelvinCriticalRadiusM = &r
+		}
+	}
 	markGrowth(res)
 	res.Properties = s.properties(refT)
 	if e := s.c.Evaporation; e.MassFlowKgS > 0 {
