@@ -535,7 +535,14 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 	for i := range d {
 		d[i] = b.Diameter(i)
 	}
-	spray, err := cond.NewSpray(d, b.Volume, s.historyOptions(fixedT))
+	// The history counts each class's drops at the class's own Sauter
+	// diameter, so that its D32 starts at the summary's.
+	opts := s.historyOptions(fixedT)
+	opts.SauterFactors = make([]float64, n)
+	for i := range d {
+		opts.SauterFactors[i] = b.SauterDiameter(i) / d[i]
+	}
+	spray, err := cond.NewSpray(d, b.Volume, opts)
 	if err != nil {
 		return nil, s.evaluationError(err, d[n-1])
 	}
