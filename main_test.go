@@ -27,10 +27,14 @@ func TestEvalCaseFile(t *testing.T) {
 	if err := json.Unmarshal(out.Bytes(), &res); err != nil {
 		t.Fatal(err)
 	}
-	for _, k := range []string{"d10_m", "d32_m", "d43_m", "dv10_m", "dv50_m", "dv90_m", "span"} {
+	for _, k := range []string{"d32_m", "d43_m", "dv10_m", "dv50_m", "dv90_m", "span"} {
 		if v := res.Summary[k]; v == nil || *v <= 0 {
 			t.Errorf("summary %s = %v", k, v)
 		}
+	}
+	// The case's Rosin–Rammler has q = 2.5: no number mean exists.
+	if v, ok := res.Summary["d10_m"]; !ok || v != nil {
+		t.Errorf("summary d10_m = %v (present %v), want null", v, ok)
 	}
 	if len(res.Bins) != 40 {
 		t.Fatalf("%d bins", len(res.Bins))
