@@ -665,26 +665,43 @@ func (s *setup) stateWarnings(lo, hi float64, state string) []string {
 // are set by the lower cut alone, not by the spray (sizedist's
 // MeanDiameter of each model says which means exist).
 func (s *setup) numberMeans(out *Summary, sum sizedist.Summary) []string {
-	var warnings []string
+	var missing []string
+	reason := ""
 	for _, mean := range []struct {
+		name string
 		p, q float64
 		v    float64
 		dst  **float64
-	}{{1, 0, sum.D10, &out.D10M}, {2, 0, sum.D20, &out.D20M}, {3, 0, sum.D30, &out.D30M}} {
+	}{{"D10", 1, 0, sum.D10, &out.D10M}, {"D20", 2, 0, sum.D20, &out.D20M}, {"D30", 3, 0, sum.D30, &out.D30M}} {
 		if s.model != nil {
 			if _, err := s.model.MeanDiameter(mean.p, mean.q); err != nil {
-				msg := err.Error()
-				if fes := FieldErrors(err); len(fes) > 0 {
-					msg = fmt.Sprintf("%s (%s = %s)", fes[0].Message, fes[0].Field, fes[0].Value)
+				missing = append(missing, mean.name)
+				if reason == "" {
+					// "D10 of a … is undefined: the moment of order 0
+					// diverges …": keep the cause after the first colon.
+					reason = err.Error()
+					if fes := FieldErrors(err); len(fes) > 0 {
+						reason = fes[0].Message
+						if k := strings.Index(reason, ": "); k >= 0 {
+							reason = reason[k+2:]
+						}
+						reason = fmt.Sprintf("%s; %s = %s", reason, fes[0].Field, fes[0].Value)
+					}
 				}
-				warnings = append(warnings, fmt.Sprintf("D%g%g is left out (null): %s; the classes' value would only follow the lower cut.", mean.p, mean.q, msg))
 				continue
 			}
 		}
 		v := mean.v
 		*mean.dst = &v
 	}
-	return warnings
+	if len(missing) == 0 {
+		return nil
+	}
+	names := strings.Join(missing, ", ")
+	if k := strings.LastIndex(names, ", "); k >= 0 {
+		names = names[:k] + " and " + names[k+2:]
+	}
+	return []string{fmt.Sprintf("%s left out (null): the model's number distribution has no such mean (%s), so the classes' values would only follow the lower cut.", names+map[bool]string{true: " is", false: " are"}[len(missing) == 1], reason)}
 }
 
 // canceled is the error of an evaluation stopped by its context.
