@@ -632,7 +632,22 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 		state = "the drops' temperature (from injection to steady)"
 	}
 	res.Warnings = append(res.Warnings, s.stateWarnings(lo, hi, state)...)
+	res.Warnings = dedupe(res.Warnings)
 	return res, nil
+}
+
+// dedupe drops repeated warnings, keeping the first of each: the classes'
+// states and the history raise some of the same flags.
+func dedupe(ws []string) []string {
+	seen := make(map[string]bool, len(ws))
+	out := ws[:0]
+	for _, w := range ws {
+		if !seen[w] {
+			seen[w] = true
+			out = append(out, w)
+		}
+	}
+	return out
 }
 
 // stateWarnings are the liquid's property-range warnings over the

@@ -54,3 +54,25 @@ func TestRangeWarningsFollowTheState(t *testing.T) {
 		}
 	}
 }
+
+// No warning is repeated: the classes' states and the history raise some
+// of the same flags (the Clift Reynolds-number range appeared twice in
+// the A–S transient at 15 bar, 700 K).
+func TestWarningsAreNotRepeated(t *testing.T) {
+	c := Case{Format: CaseFormat, Name: "A–S transient", Fluid: "kerosene-surrogate", Heating: "transient",
+		InjectionTemperatureK: ptr(300),
+		Gas:                   Gas{PressurePa: 15e5, TemperatureK: 700, RelativeVelocityMS: 10},
+		Distribution:          Distribution{Model: "rosin-rammler", D32M: 30e-6, Q: 2.5, Bins: 12},
+		Evaporation:           Evaporation{Convection: "abramzon-sirignano"}}
+	res, err := Evaluate(c)
+	if err != nil {
+		t.Fatal(err)
+	}
+	seen := map[string]bool{}
+	for _, w := range res.Warnings {
+		if seen[w] {
+			t.Errorf("repeated warning %q", w)
+		}
+		seen[w] = true
+	}
+}
