@@ -102,6 +102,18 @@ func TestAtomizerBenchEvaluateSolveMonteCarloSweep(t *testing.T) {
 	}
 }
 
+// The workbench never takes the liquid at the gas temperature: an empty
+// liquid temperature is marked beside its field.
+func TestAtomizerBenchNeedsTheSupplyTemperature(t *testing.T) {
+	ts, _ := newTestServer(t)
+	q := benchQuery()
+	q.Set("liquid_temperature", "")
+	doc, _ := getDoc(t, client(t), ts.URL+"/atomizers/pressure-swirl?"+q.Encode())
+	if txt := doc.Find(`[data-testid="error-liquid_temperature"]`).Text(); !strings.Contains(txt, "supplied at") {
+		t.Errorf("empty liquid temperature: %q (form errors %q)", txt, doc.Find(`[data-testid=form-errors]`).Text())
+	}
+}
+
 func TestAtomizerBenchBadInputKeepsForm(t *testing.T) {
 	ts, _ := newTestServer(t)
 	q := benchQuery()
@@ -260,6 +272,8 @@ func TestAPIAtomize(t *testing.T) {
 	for _, tc := range []struct{ body, field string }{
 		{strings.Replace(body, `"orifice_diameter_m":1e-3`, `"orifice_diameter_m":-1`, 1), "distribution.inputs.orifice_diameter_m"},
 		{strings.Replace(body, `"water"`, `"treacle"`, 1), "fluid"},
+		// The liquid is taken at its supply temperature, never the gas's.
+		{strings.Replace(body, `"liquid_temperature_k":293.15,`, ``, 1), "liquid_temperature_k"},
 		{strings.Replace(body, `"family"`, `"famliy"`, 1), "body"},
 	} {
 		code, out := post("/api/atomize", tc.body)
