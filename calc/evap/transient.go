@@ -1,6 +1,7 @@
 package evap
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"sort"
@@ -217,7 +218,6 @@ func (sp *sprayPaths) integrateBin(i int, tInj, horizon float64, rec *[]stepReco
 	}
 	p := &transientPath{c: c, m0: rhoInj * math.Pi * d0 * d0 * d0 / 6}
 	var last dropEval
-	var evalErr error
 	maxKn, flags := 0.0, uint(0)
 	joinAt := 0 // points of the path up to the join, once joined
 	f := func(_ float64, y, dy []float64) error {
@@ -225,7 +225,6 @@ func (sp *sprayPaths) integrateBin(i int, tInj, horizon float64, rec *[]stepReco
 		d := p.diameter(s, y[1])
 		e, err := c.evaluate(d, y[1], c.Curvature)
 		if err != nil {
-			evalErr = err
 			return err
 		}
 		m := p.m0 * s * math.Sqrt(s)
@@ -329,8 +328,10 @@ func (sp *sprayPaths) integrateBin(i int, tInj, horizon float64, rec *[]stepReco
 	st := newODEStepper(f, 2, 1e-7, []float64{1e-10, 1e-6})
 	tEnd, err := st.run(0, horizon, y, h0, after)
 	if err != nil && joinAt == 0 {
-		if evalErr != nil {
-			return nil, 0, false, evalErr
+		// The stepper returns the rate's own error when it persists (an
+		// error at a trial stage it recovered from is not one).
+		if !errors.Is(err, errStepTooSmall) {
+			return nil, 0, false, err
 		}
 		return nil, 0, false, fmt.Errorf("evap: transient heating of the %s m bin: %w", valid.FormatValue(d0), err)
 	}
