@@ -222,6 +222,14 @@ func LookupLiquid(c Case) (*fluid.Liquid, error) {
 // renameField puts a helper's field error on the case-file field the user
 // typed.
 func renameField(err error, field string) error {
+	var fes valid.Errors
+	if errors.As(err, &fes) && len(fes) > 0 {
+		msgs := make([]string, len(fes))
+		for i, fe := range fes {
+			msgs[i] = fe.Message
+		}
+		return &valid.FieldError{Field: field, Value: fes[0].Value, Message: strings.Join(msgs, "; ")}
+	}
 	var fe *valid.FieldError
 	if errors.As(err, &fe) {
 		return &valid.FieldError{Field: field, Value: fe.Value, Message: fe.Message}

@@ -38,6 +38,12 @@ func checkUserError(t *testing.T, what string, err error) {
 		}
 	}
 	for _, fe := range FieldErrors(err) {
+		// A message names no second field: it sits beside its own.
+		for _, f := range caseFields {
+			if strings.HasPrefix(fe.Message, f) && strings.HasSuffix(f, ".") {
+				t.Errorf("%s: the message of %s starts with another field: %q", what, fe.Field, fe.Message)
+			}
+		}
 		ok := false
 		for _, f := range caseFields {
 			if fe.Field == f || strings.HasSuffix(f, ".") && strings.HasPrefix(fe.Field, f) {
