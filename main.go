@@ -6,7 +6,7 @@
 // Usage:
 //
 //	fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert C -tls-key K]
-//	fogbench eval [FILE|-]          evaluate case file(s), print results as JSON
+//	fogbench eval [-strict] [FILE|-]   evaluate case file(s), print results as JSON
 //	fogbench backup -db LIB FILE    consistent copy of a running library
 //	fogbench restore FILE -db LIB   replace a library with a checked backup
 //	fogbench report ID -o FILE.pdf  PDF report of a stored case
@@ -88,7 +88,8 @@ func isHelpFlag(arg string) bool {
 
 const usage = `usage:
   fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert CERT.pem -tls-key KEY.pem] [-allow-host NAME]
-  fogbench eval [FILE|-]            evaluate a case file (one case or an array) and print the results as JSON
+  fogbench eval [-strict] [FILE|-]  evaluate a case file (one case or an array) and print the results as JSON;
+                                    in an array a failing case gets its error in its place (-strict: exit non-zero then)
   fogbench backup [-db fogbench.db] FILE   write a consistent copy of the library (safe while serving)
   fogbench restore FILE [-db fogbench.db]  replace the library with a checked backup (stop the server first)
   fogbench report CASE-ID -o FILE.pdf [-db fogbench.db] [-paper a4|letter]   PDF report of a stored case
@@ -265,7 +266,20 @@ const serveMemoryLimit = 64 << 20
 
 // evalCmd reads case file(s) and prints the results as JSON: one object for
 // one case, an array for an array.
+//
+// An array never aborts for one case: a case that cannot be computed gets
+// its error object (calc.CaseError) in its place and a line on stderr, and
+// the exit code is 0 unless -strict, which exits with the first failing
+// case's code (2 bad input, 1 a fault). Ctrl-C stops the whole batch
+// (exit 130). A single case exits with its error as before.
 func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+	fs := flag.NewFlagSet("eval", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	strict := fs.Bool("strict", false, "exit non-zero when any case of an array fails (each failing case still has its error in its place)")
+	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	args = fs.Args()
 	if len(args) > 1 {
 		fmt.Fprintf(stderr, "fogbench eval: give one file or - for standard input\n")
 		return 2
@@ -323,15 +337,66 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		}
 		return 0
 	}
-	outs, i, err := encodeAll(ctx, cases, runtime.GOMAXPROCS(0))
-	if err != nil {
-		return failed(i, err)
+	if !array {
+		outs, i, err := encodeAll(ctx, cases, runtime.GOMAXPROCS(0))
+		if err != nil {
+			return failed(i, err)
+		}
+		if _, err := joinJSON(outs, false).WriteTo(stdout); err != nil {
+			fmt.Fprintf(stderr, "fogbench eval: %v\n", err)
+			return 1
+		}
+		return 0
 	}
-	if _, err := joinJSON(outs, array).WriteTo(stdout); err != nil {
+	outs, errs, err := encodeBatch(ctx, cases, runtime.GOMAXPROCS(0))
+	if err != nil {
+		// Only a stop (Ctrl-C) ends a batch early.
+		fmt.Fprintf(stderr, "fogbench eval: %s: %v\n", name, oneLine(err))
+		return 130
+	}
+	code := 0
+	for i, err := range errs {
+		if err != nil {
+			if c := failed(i, err); code == 0 {
+				code = c
+			}
+		}
+	}
+	if _, err := joinJSON(outs, true).WriteTo(stdout); err != nil {
 		fmt.Fprintf(stderr, "fogbench eval: %v\n", err)
 		return 1
 	}
-	return 0
+	if !*strict {
+		return 0
+	}
+	return code
+}
+
+// encodeBatch is encodeAll for an array: a failing case's encoding is its
+// calc.CaseError and its error is returned at its index in errs, and the
+// other cases go on. Only a stop of ctx (Canceled) ends the batch, with
+// that error.
+func encodeBatch(ctx context.Context, cases []calc.Case, workers int) ([][]byte, []error, error) {
+	outs := make([][]byte, len(cases))
+	errs := make([]error, len(cases))
+	_, err := runAll(len(cases), workers, func(i int) error {
+		res, err := calc.EvaluateContext(ctx, cases[i])
+		if err == nil {
+			outs[i], err = res.AppendJSON(nil)
+		}
+		if err != nil {
+			if calc.ErrorCode(err) == calc.Canceled {
+				return err
+			}
+			errs[i] = err
+			outs[i], err = json.Marshal(calc.NewCaseError(err))
+		}
+		return err
+	})
+	if err != nil {
+		return nil, nil, err
+	}
+	return outs, errs, nil
 }
 
 // encodeAll evaluates the cases on up to workers goroutines (cases are

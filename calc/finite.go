@@ -22,7 +22,7 @@ func nonFinite(r *Result) string {
 		return ""
 	}
 	s := &r.Summary
-	sv := [...]float64{s.D10M, s.D20M, s.D30M, s.D32M, s.D43M, s.Dv10M, s.Dv50M, s.Dv90M, s.Span, s.RelativeSpan,
+	sv := [...]float64{opt(s.D10M), opt(s.D20M), opt(s.D30M), s.D32M, s.D43M, s.Dv10M, s.Dv50M, s.Dv90M, s.Span, s.RelativeSpan,
 		opt(s.T50S), opt(s.T90S), opt(s.T99S), opt(s.DropsPerSecond)}
 	if p := firstNonFinite("summary.", summaryNames[:], sv[:]); p != "" {
 		return p

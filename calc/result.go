@@ -22,16 +22,20 @@ type Result struct {
 
 // Summary holds the spray-level figures.
 type Summary struct {
-	D10M         float64 `json:"d10_m"`
-	D20M         float64 `json:"d20_m"`
-	D30M         float64 `json:"d30_m"`
-	D32M         float64 `json:"d32_m"`
-	D43M         float64 `json:"d43_m"`
-	Dv10M        float64 `json:"dv10_m"`
-	Dv50M        float64 `json:"dv50_m"`
-	Dv90M        float64 `json:"dv90_m"`
-	Span         float64 `json:"span"`
-	RelativeSpan float64 `json:"relative_span"`
+	// D10M, D20M and D30M are null, with a warning, when the model's
+	// number distribution has no such mean (a Rosin–Rammler with q ≤ 3:
+	// its number density diverges at D → 0, so the classes' means only
+	// follow the lower cut).
+	D10M         *float64 `json:"d10_m"`
+	D20M         *float64 `json:"d20_m"`
+	D30M         *float64 `json:"d30_m"`
+	D32M         float64  `json:"d32_m"`
+	D43M         float64  `json:"d43_m"`
+	Dv10M        float64  `json:"dv10_m"`
+	Dv50M        float64  `json:"dv50_m"`
+	Dv90M        float64  `json:"dv90_m"`
+	Span         float64  `json:"span"`
+	RelativeSpan float64  `json:"relative_span"`
 	// Times to 50, 90 and 99 % of the liquid mass evaporated; null when the
 	// spray does not get there (saturated surroundings).
 	T50S *float64 `json:"t50_s"`

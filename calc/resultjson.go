@@ -233,11 +233,11 @@ func (w *jsonWriter) result(r *Result) {
 
 func (w *jsonWriter) summary(s *Summary) {
 	w.raw(`{"d10_m":`)
-	w.float(s.D10M)
+	w.floatPtr(s.D10M)
 	w.raw(`,"d20_m":`)
-	w.float(s.D20M)
+	w.floatPtr(s.D20M)
 	w.raw(`,"d30_m":`)
-	w.float(s.D30M)
+	w.floatPtr(s.D30M)
 	w.raw(`,"d32_m":`)
 	w.float(s.D32M)
 	w.raw(`,"d43_m":`)

@@ -257,7 +257,9 @@ func (s *Server) readBench(r *http.Request, f atomize.FamilyInfo, q url.Values) 
 		b.mark("gas_temperature", "give the gas temperature")
 	}
 	if !okL && b.marks["liquid_temperature"] == "" {
-		tl, okL = tg, okG // the liquid at the gas temperature
+		// Never the gas temperature: the nozzle is fed with the liquid
+		// at its supply temperature.
+		b.mark("liquid_temperature", "give the temperature the liquid is supplied at: the correlations take its properties there")
 	}
 	if g != nil && okP && okG {
 		if err := valid.Between("gas.pressure_pa", p, calc.MinPressurePa, calc.MaxPressurePa, "Pa"); err != nil {
@@ -596,7 +598,7 @@ func (s *Server) handleAtomizerCase(w http.ResponseWriter, r *http.Request) {
 	vals, us := fillForm(newCaseDefaults(), d)
 	vals["model"], vals["family"], vals["correlation"] = "atomizer", f.ID, q.Get("correlation")
 	vals["name"] = f.Name + " nozzle"
-	for _, k := range []string{"fluid", "gas", "liquid_temperature", "pressure", "gas_temperature"} {
+	for _, k := range []string{"fluid", "gas", "pressure", "gas_temperature"} {
 		if x := q.Get(k); x != "" {
 			vals[k] = x
 		}
@@ -604,6 +606,7 @@ func (s *Server) handleAtomizerCase(w http.ResponseWriter, r *http.Request) {
 			us[k] = u
 		}
 	}
+	supplyToCase(q, vals, us)
 	prefix := "at." + f.ID + "."
 	for k, x := range q {
 		if strings.HasPrefix(k, prefix) && len(x) > 0 {
@@ -620,6 +623,47 @@ func (s *Server) handleAtomizerCase(w http.ResponseWriter, r *http.Request) {
 	form := s.formView(r, "New case", "/cases", 0, 0, vals, us, nil, "")
 	form.Flash = "Prefilled from the atomizer workbench; check the inputs and save."
 	s.render(w, r, http.StatusOK, form.Chrome, views.CaseFormPage(form))
+}
+
+// supplyToCase puts the bench's liquid temperature, the temperature the
+// nozzle is fed with, into the new case as its injection temperature
+// (injection_temperature_k), which the case's nozzle takes the liquid's
+// properties at, never as the drops' fixed surface temperature: a 20 bar,
+// 700 K combustor case showed t50 = 7 s with the drops held at 293 K.
+// Where the gas is hotter than the liquid the drops heat up from it
+// (transient heating); otherwise each class sits at its steady
+// temperature. The drop surface temperature is left empty either way.
+func supplyToCase(q url.Values, vals, us valuesMap) {
+	delete(vals, "liquid_temperature")
+	x := q.Get("liquid_temperature")
+	if x == "" {
+		return
+	}
+	vals["injection_temperature"] = x
+	lu := q.Get("liquid_temperature_unit")
+	if lu != "" {
+		us["injection_temperature"] = lu
+	}
+	tl, okL := temperatureK(x, lu)
+	tg, okG := temperatureK(q.Get("gas_temperature"), q.Get("gas_temperature_unit"))
+	if okL && okG && tg > tl {
+		vals["heating"] = "transient"
+	}
+}
+
+// temperatureK reads a temperature typed in unit sym (kelvin when empty).
+func temperatureK(raw, sym string) (float64, bool) {
+	v, err := parseNumber(raw)
+	if err != nil {
+		return 0, false
+	}
+	u := units.Default(units.SI, units.Temperature)
+	if sym != "" {
+		if u, err = units.Lookup(units.Temperature, sym); err != nil {
+			return 0, false
+		}
+	}
+	return u.ToSI(v), true
 }
 
 // atomizeRequest is the body of POST /api/atomize and /api/atomize/solve.
@@ -688,10 +732,13 @@ func (s *Server) decodeAtomize(r *http.Request) (atomizeRequest, atomize.Propert
 	if err != nil {
 		return req, atomize.Properties{}, nil, err
 	}
-	tl := gas.TemperatureK
-	if req.LiquidTemperatureK != nil {
-		tl = *req.LiquidTemperatureK
+	// The nozzle takes the liquid at its supply temperature, never at the
+	// gas temperature.
+	if req.LiquidTemperatureK == nil {
+		return req, atomize.Properties{}, nil, &valid.FieldError{Field: "liquid_temperature_k",
+			Message: "give the temperature the liquid is supplied at: the correlations take its properties there"}
 	}
+	tl := *req.LiquidTemperatureK
 	w, err := l.Check(tl)
 	if err != nil {
 		return req, atomize.Properties{}, nil, err

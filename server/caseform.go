@@ -181,6 +181,9 @@ func parseCaseForm(form url.Values) (calc.Case, caseForm) {
 	if cf.Values["heating"] == "transient" {
 		c.Heating = "transient"
 	}
+	if cf.Values["heating"] == "transient" {
+		c.Heating = "transient"
+	}
 	if raw := cf.Values["custom_fluid_json"]; raw != "" {
 		// The liquid a case defines itself travels through the form as JSON.
 		var spec fluid.CustomSpec
@@ -326,6 +329,9 @@ func fillForm(c calc.Case, d views.Display) (valuesMap, valuesMap) {
 	}
 	if c.Evaporation.NoTransition {
 		vals["transition"] = "off"
+	}
+	if c.Heating == "transient" {
+		vals["heating"] = "transient"
 	}
 	us := valuesMap{}
 	if vals["convection"] == "" {

@@ -176,7 +176,7 @@ func summaryCSVRow(rec store.CaseRecord, res *calc.Result) []csvCell {
 	}
 	row := []csvCell{
 		csvInt(rec.ID), csvInt(int64(rec.Revision)), textCell(rec.Case.Name),
-		csvNum(s.D10M * 1e6), csvNum(s.D20M * 1e6), csvNum(s.D30M * 1e6), csvNum(s.D32M * 1e6), csvNum(s.D43M * 1e6),
+		csvOpt(s.D10M, 1e6), csvOpt(s.D20M, 1e6), csvOpt(s.D30M, 1e6), csvNum(s.D32M * 1e6), csvNum(s.D43M * 1e6),
 		csvNum(s.Dv10M * 1e6), csvNum(s.Dv50M * 1e6), csvNum(s.Dv90M * 1e6), csvNum(s.RelativeSpan),
 		csvOpt(s.T50S, 1), csvOpt(s.T90S, 1), csvOpt(s.T99S, 1), csvOpt(s.DropsPerSecond, 1),
 		csvNum(c.KelvinLengthM * 1e9), csvNum(c.LaplaceOneAtmDM * 1e6), csvOpt(c.Enhancement1PctDM, 1e6), csvOpt(c.Enhancement10PctDM, 1e6), crit,

@@ -187,8 +187,8 @@ func (v CaseView) SummaryFigures() []Figure {
 		{Label: "10 % of volume below", Symbol: "Dv10", Value: Micro(s.Dv10M), Unit: "µm"},
 		{Label: "90 % of volume below", Symbol: "Dv90", Value: Micro(s.Dv90M), Unit: "µm"},
 		{Label: "Relative span", Symbol: "(Dv90−Dv10)/Dv50", Value: Num(s.Span, 3)},
-		{Label: "Arithmetic mean", Symbol: "D10", Value: Micro(s.D10M), Unit: "µm"},
-		{Label: "Volume mean", Symbol: "D30", Value: Micro(s.D30M), Unit: "µm"},
+		numberMean("Arithmetic mean", "D10", s.D10M),
+		numberMean("Volume mean", "D30", s.D30M),
 		{Label: "De Brouckere mean", Symbol: "D43", Value: Micro(s.D43M), Unit: "µm"},
 	}
 	for _, t := range []struct {
@@ -412,4 +412,13 @@ func enhancementText(e float64) string {
 		return "undefined"
 	}
 	return fmt.Sprintf("%.6f", e)
+}
+
+// numberMean is the figure of a number mean, which a model may not have
+// (a Rosin–Rammler with q ≤ 3): "does not exist" then, with the reason.
+func numberMean(label, sym string, v *float64) Figure {
+	if v == nil {
+		return Figure{Label: label, Symbol: sym, Value: "does not exist", Hint: "the model's number distribution has no such mean (see the warnings)"}
+	}
+	return Figure{Label: label, Symbol: sym, Value: Micro(*v), Unit: "µm"}
 }

@@ -77,6 +77,7 @@ type dropEval struct {
 	s, psat, pv, sigma, rhoL float64
 	lk, ys, bm, bt, kn, fs   float64
 	re, sh, nu, lat          float64
+	conductance              float64 // ∂Q/∂(T_∞ − T_s) at fixed film: Q/(T_∞ − T_s), W/K
 	flags                    uint
 }
 
@@ -228,14 +229,32 @@ func (c *Conditions) evaluateAt(d, ts float64, curved bool, cache *liquidAt) (dr
 		stefan = phiLnBM / bte
 	}
 	e.q = e.fs * math.Pi * d * k * e.nu * (c.GasTemperature - ts) * stefan
+	e.conductance = e.fs * math.Pi * d * k * e.nu * stefan
 	e.heatToLiquid = e.q - e.mdot*e.lat
 	return e, nil
 }
 
+// PropertyLimitError is the error of a rate evaluated at a surface
+// temperature where one of the liquid's properties is not usable: its
+// latent heat or surface tension has reached zero at the critical point,
+// or a fit has left the range where it is a number. It is a physical
+// limit of the model (the surface has reached the liquid's critical
+// region), which the caller words for the user; Err is the field error
+// naming the property.
+type PropertyLimitError struct {
+	Property    string  // the property, as in Err's field: "liquid.latent_heat_j_kg"
+	Temperature float64 // the surface temperature reached, K
+	Err         error
+}
+
+func (e *PropertyLimitError) Error() string { return e.Err.Error() }
+func (e *PropertyLimitError) Unwrap() error { return e.Err }
+
 func propertyCheck(ts, psat, sigma, rhoL, lat, mv float64) error {
 	bad := func(name string, v float64, positive bool) error {
 		if math.IsNaN(v) || math.IsInf(v, 0) || v < 0 || (positive && v == 0) {
-			return valid.Errorf(name, v, "liquid property is not a usable number at %s K", valid.FormatValue(ts))
+			return &PropertyLimitError{Property: name, Temperature: ts,
+				Err: valid.Errorf(name, v, "liquid property is not a usable number at %s K", valid.FormatValue(ts))}
 		}
 		return nil
 	}

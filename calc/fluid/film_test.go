@@ -104,7 +104,12 @@ func TestVaporMoleFraction(t *testing.T) {
 	if err != nil || !scalar.EqualWithinAbsOrRel(x, 0.5*3169.747/101325, 0, 1e-6) {
 		t.Errorf("x(50 %% RH) = %g, %v", x, err)
 	}
-	for _, c := range []struct{ rh, T, p float64 }{{1.5, 298.15, 101325}, {0.5, 700, 101325}, {1, 380, 101325}, {0.5, 298.15, 0}} {
+	// Above 1 is supersaturated, accepted as documented.
+	x, err = VaporMoleFractionFromRelativeHumidity(w, 1.5, 298.15, 101325)
+	if err != nil || !scalar.EqualWithinAbsOrRel(x, 1.5*3169.747/101325, 0, 1e-6) {
+		t.Errorf("x(150 %% RH) = %g, %v", x, err)
+	}
+	for _, c := range []struct{ rh, T, p float64 }{{10.5, 298.15, 101325}, {-0.1, 298.15, 101325}, {0.5, 700, 101325}, {1, 380, 101325}, {0.5, 298.15, 0}} {
 		if _, err := VaporMoleFractionFromRelativeHumidity(w, c.rh, c.T, c.p); err == nil {
 			t.Errorf("rh=%g T=%g p=%g must be an error", c.rh, c.T, c.p)
 		}

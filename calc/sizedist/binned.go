@@ -62,6 +62,17 @@ func (b *Binned) Diameter(i int) float64 {
 	return geoMean(b.Edges[i], b.Edges[i+1])
 }
 
+// SauterDiameter is class i's own Sauter mean diameter in m,
+// <D³>/<D²> over the class with the number density constant in D (the
+// class-average rule the means use, see Binned): the diameter whose
+// volume-to-surface ratio is the class's, so that Σv_i/Σ(v_i/D32_i) over
+// the classes is the distribution's D32.
+func (b *Binned) SauterDiameter(i int) float64 {
+	ref := b.Diameter(i)
+	lo, hi := b.Edges[i]/ref, b.Edges[i+1]/ref
+	return ref * classAveragePow(lo, hi, 3) / classAveragePow(lo, hi, 2)
+}
+
 // classAveragePow is the class average <D^p> over [lo, hi] for a number
 // density constant in D:
 //

@@ -336,7 +336,11 @@ def shrinkage_time(drops, d0):
     return u, G, p0, g_nodes / G
 
 
-def history(drops, d0, w, steps=200, max_time=0.0):
+def history(drops, d0, w, steps=200, max_time=0.0, sauter=None):
+    """sauter: per bin, the class's own Sauter diameter over d0; D32 counts
+    the bin's drops at that many times its diameter (docs/methods-evap.md)."""
+    if sauter is None:
+        sauter = np.ones_like(d0)
     u, G, p0, slope = shrinkage_time(drops, d0)
     life = np.exp(np.interp(np.log(d0), u, np.log(G)))  # d0 are grid nodes: exact
     # d(t) from G(d) = G(d0) - t: cubic Hermite interpolation of ln d in ln G
@@ -376,7 +380,7 @@ def history(drops, d0, w, steps=200, max_time=0.0):
     v = w[None, :] * (d / d0[None, :]) ** 3
     rem = v.sum(axis=1)
     with np.errstate(divide="ignore", invalid="ignore"):
-        s2 = np.where(d > 0, v / d, 0).sum(axis=1)
+        s2 = np.where(d > 0, v / (sauter[None, :] * d), 0).sum(axis=1)
     d32 = np.where(s2 > 0, rem / np.where(s2 > 0, s2, 1), 0)
     # Dv50: each bin a point at its diameter, cumulative volume at its middle.
     cmid = np.cumsum(v, axis=1) - 0.5 * v
@@ -412,7 +416,10 @@ def evaluate(case):
     mdot, s, kn = drops.rate(d)
     flat = drops.rate(d, curved=False)[0]
     enh = np.where(flat > 0, mdot / flat, 0)
-    life, hist, (t50, t90, t99) = history(drops, d, vol, max_time=case.get("evaporation", {}).get("max_time_s", 0))
+    lo, hi = edges[:-1] / d, edges[1:] / d
+    sauter = class_average_pow(lo, hi, 3) / class_average_pow(lo, hi, 2)
+    life, hist, (t50, t90, t99) = history(drops, d, vol, max_time=case.get("evaporation", {}).get("max_time_s", 0),
+                                          sauter=sauter)
     summ = summary(edges, num, vol)
     summ.update({"t50_s": t50, "t90_s": t90, "t99_s": t99})
     reg = regime(kn)
