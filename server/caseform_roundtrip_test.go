@@ -252,6 +252,9 @@ func roundTripBases(t *testing.T) []calc.Case {
 		for _, corr := range corrs {
 			in := map[string]float64{}
 			c := named("atomizer "+f.ID+" "+corr, calc.Distribution{Model: "atomizer", Family: f.ID, Correlation: corr, Inputs: in})
+			// A nozzle takes its liquid at the supply temperature.
+			supply := 293.15
+			c.InjectionTemperatureK = &supply
 			for _, info := range f.Inputs {
 				if info.Required {
 					in[info.Name] = info.Typical
