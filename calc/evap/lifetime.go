@@ -66,7 +66,7 @@ func (c *Conditions) LifetimeReport(d0 float64, opts LifetimeOptions) (LifetimeR
 	if err := valid.Positive("drop.diameter_m", d0); err != nil {
 		return res, err
 	}
-	tb, _, err := c.boilingTemperature()
+	tb, _, err := c.upperTemperature()
 	if err != nil {
 		return res, err
 	}
@@ -208,13 +208,18 @@ func (r *rateFunc) temperature(d float64) (float64, error) {
 	}
 	dEff := math.Max(d, minSteadyDiameter)
 	t, err := r.c.steadyTemperature(dEff, r.tb, r.guess)
-	for i := 0; err != nil && !errors.Is(err, ErrBoiling) && i < 20 && dEff < 1e-6; i++ {
+	for i := 0; err != nil && !errors.Is(err, ErrBoiling) && !errors.Is(err, ErrTranscritical) && i < 20 && dEff < 1e-6; i++ {
 		dEff *= 2
 		t, err = r.c.steadyTemperature(dEff, r.tb, r.guess)
 	}
 	if err != nil && t == r.tb && t > 0 {
-		// Clamped at the boiling point: keep going just below it.
-		r.flags |= warnSurfaceCapped
+		// Clamped at the boiling point or the surface's critical limit:
+		// keep going just below it.
+		if errors.Is(err, ErrTranscritical) {
+			r.flags |= warnTranscritical
+		} else {
+			r.flags |= warnSurfaceCapped
+		}
 		t, err = math.Nextafter(r.tb, 0), nil
 	}
 	if err == nil {

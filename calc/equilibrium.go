@@ -1,0 +1,304 @@
+package calc
+
+import (
+	"fmt"
+	"math"
+
+	"fogbench/calc/evap"
+	"fogbench/calc/flash"
+	"fogbench/calc/fluid"
+	"fogbench/calc/valid"
+)
+
+// Equilibrium at the drop surface at the real gas pressure: the vapor mole
+// fraction over a flat surface from equal fugacities of the liquid's
+// substance,
+//
+//	y_v φ_v p = x_L p_sat φ_sat exp(v_L (p − p_sat)/(R T)),
+//
+// and each class's partial pressure y_v p times its Kelvin ratio (the rest
+// of the Poynting integral, from p to p + 2σ/r). p_sat, v_L = M/ρ_L and
+// the Kelvin ratio come from the liquid's own correlations; φ_v, φ_sat and
+// the dissolved gas 1 − x_L from an equation of state: Peng–Robinson with
+// van der Waals mixing for organic liquids, the IAPWS virial guideline and
+// Henry's constants for water.
+
+// gasEOS holds the Peng–Robinson constants of the carrier gases: N2 from
+// Span et al., J. Phys. Chem. Ref. Data 29 (2000) 1361 (Tc as in the
+// Lemmon & Jacobsen transport constants of calc/fluid; pc and ω from
+// memory); air as one pseudo-component with the constants of Lemmon et
+// al. (2000) (read in python3-iapws 1.5.2, humidAir.py Air).
+var gasEOS = map[string]flash.PengRobinson{
+	"nitrogen": {Tc: 126.192, Pc: 3.3958e6, Omega: 0.0372},
+	"air":      {Tc: 132.6306, Pc: 3.786e6, Omega: 0.0335},
+}
+
+// kijSource is the published table of the N2–liquid interaction parameters.
+const kijSource = "DECHEMA Peng–Robinson interaction parameters as distributed in ChemSep's pr.ipd (Kooijman & Taylor 2009; read in the copy in CalebBell/thermo)"
+
+// nitrogenKij gives k_ij of N2 with each built-in organic liquid and where
+// the value comes from. Values are tabulated for n-heptane (0.1441),
+// n-decane (0.1122) and methanol (−0.2141); the heavier n-alkanes take the
+// n-decane value and iso-octane the n-heptane value (the nearest
+// tabulated alkanes; an assumption, no source); ethanol and acetone have no
+// tabulated value and take 0.
+var nitrogenKij = map[string]struct {
+	k    float64
+	note string
+}{
+	"n-heptane":          {0.1441, "N2–n-heptane, tabulated"},
+	"n-decane":           {0.1122, "N2–n-decane, tabulated"},
+	"n-dodecane":         {0.1122, "the N2–n-decane value (no tabulated N2–n-dodecane value; assumption)"},
+	"kerosene-surrogate": {0.1122, "the N2–n-decane value (no tabulated N2–n-dodecane value; assumption)"},
+	"n-hexadecane":       {0.1122, "the N2–n-decane value (no tabulated N2–n-hexadecane value; assumption)"},
+	"diesel-surrogate":   {0.1122, "the N2–n-decane value (no tabulated N2–n-hexadecane value; assumption)"},
+	"iso-octane":         {0.1441, "the N2–n-heptane value (no tabulated N2–iso-octane value; assumption)"},
+	"methanol":           {-0.2141, "N2–methanol, tabulated"},
+	"ethanol":            {0, "0 (no tabulated N2–ethanol value)"},
+	"acetone":            {0, "0 (no tabulated N2–acetone value)"},
+}
+
+// surfaceEquilibrium implements evap.SurfaceEquilibrium for one case.
+type surfaceEquilibrium struct {
+	l      *fluid.Liquid
+	gasID  string
+	p      float64
+	water  bool         // water: IAPWS virial fugacity and Henry's constants
+	bin    flash.Binary // organic liquids
+	tcrit  float64      // surface critical limit, K
+	crit   bool
+	method string
+	// last is the surface temperature and result of the last call, which
+	// the solvers ask for again and again.
+	lastT float64
+	last  evap.FlatEquilibrium
+}
+
+// newSurfaceEquilibrium builds the equilibrium of liquid l under gas g at
+// pressure p (Pa), or nil when the gas has no equation-of-state constants.
+func newSurfaceEquilibrium(l *fluid.Liquid, g *fluid.Gas, p float64) *surfaceEquilibrium {
+	ge, ok := gasEOS[g.ID]
+	if !ok {
+		return nil
+	}
+	s := &surfaceEquilibrium{l: l, gasID: g.ID, p: p, lastT: math.NaN()}
+	if l.ID == "water" {
+		s.water = true
+		s.method = fmt.Sprintf("water vapor in %s: fugacity coefficients by the IAPWS Guideline on a Virial Equation for the Fugacity of H2O in Humid Air (G11-15), dissolved gas by Henry's law with the IAPWS G7-04 constants, Poynting integral with the incompressible saturated liquid", g.Name)
+		return s
+	}
+	kij, note := 0.0, "0 (no tabulated value for a user liquid)"
+	if v, ok := nitrogenKij[l.ID]; ok {
+		kij, note = v.k, v.note
+	}
+	s.bin = flash.Binary{
+		Liquid: flash.PengRobinson{Tc: l.CriticalTemperature(), Pc: l.CriticalPressure(), Omega: l.AcentricFactor()},
+		Gas:    ge, Kij: kij,
+	}
+	gasWord := "N2"
+	if g.ID == "air" {
+		gasWord = "air as one pseudo-component with the N2 value"
+	}
+	s.method = fmt.Sprintf("Peng–Robinson (1976) with van der Waals mixing for φ_v, φ_sat and the dissolved gas; k_ij = %.4g for %s: %s, %s; Poynting integral with the liquid's own molar volume, taken incompressible", kij, gasWord, note, kijSource)
+	if p >= l.CriticalPressure() {
+		lo := math.Max(l.MeltingPoint(), 0.5*l.CriticalTemperature())
+		if tc, err := s.bin.CriticalTemperatureOffset(p, lo, s.offset); err == nil {
+			s.tcrit, s.crit = tc, true
+		}
+	}
+	return s
+}
+
+// CriticalTemperature implements evap.SurfaceEquilibrium.
+func (s *surfaceEquilibrium) CriticalTemperature() (float64, bool) { return s.tcrit, s.crit }
+
+// FlatVaporPressure implements evap.SurfaceEquilibrium.
+func (s *surfaceEquilibrium) FlatVaporPressure(T float64) (float64, error) {
+	f, err := s.flat(T)
+	return f.VaporPressure, err
+}
+
+// flat solves the flat-surface equilibrium at surface temperature T (K):
+// y_v from equal fugacities of the liquid's substance and the dissolved
+// gas x_g from equal fugacities of the gas (Peng–Robinson in both phases;
+// Henry's law for water), by successive substitution from y_v = p_sat/p,
+// x_g = 0 to 1e-13 in both. At p = p_sat the gas is gone (y_v = 1, x_g =
+// 0, φ_v = φ_sat) and the result is p_sat exactly.
+func (s *surfaceEquilibrium) flat(T float64) (evap.FlatEquilibrium, error) {
+	if T == s.lastT {
+		return s.last, nil
+	}
+	if !(T > 0) || math.IsInf(T, 0) {
+		return evap.FlatEquilibrium{}, valid.Errorf("drop.surface_temperature_k", T, "must be a positive temperature")
+	}
+	if s.crit && T > s.tcrit {
+		return evap.FlatEquilibrium{}, fmt.Errorf("calc: surface at %s K: %w", valid.FormatValue(T), evap.ErrTranscritical)
+	}
+	l, p := s.l, s.p
+	psat := l.SaturationPressure(T)
+	vL := l.MolarMass() / l.Density(T)
+	out := evap.FlatEquilibrium{PoyntingFactor: evap.PoyntingFactor(vL, psat, p, T), CriticalLimit: s.tcrit, CriticalLimitFound: s.crit}
+	var lnPhiSat float64
+	if s.water {
+		lnPhiSat = fluid.WaterInAirLnPhi(T, psat, 1)
+	} else {
+		lnPhiSat = s.bin.Liquid.PureVaporLnPhi(T, psat)
+	}
+	fL := psat * math.Exp(lnPhiSat) * out.PoyntingFactor // fugacity of the pure liquid at p
+	if !s.water {
+		sp, err := s.bin.FlashOffset(T, p, math.Log(fL/p)-s.bin.Liquid.PureLiquidLnPhi(T, p))
+		if err == nil {
+			lnPhiV, _, _ := s.bin.LnPhi(T, p, sp.Y2, flash.VaporPhase)
+			return s.store(T, psat, out, 1-sp.Y2, sp.X2, lnPhiSat, lnPhiV), nil
+		}
+		if s.crit {
+			return evap.FlatEquilibrium{}, fmt.Errorf("calc: surface at %s K: %w", valid.FormatValue(T), evap.ErrTranscritical)
+		}
+		// Below the liquid's critical pressure the split fails only next
+		// to the boiling point, where both phases are nearly pure: there
+		// the ideal-solution iteration below is as good.
+	}
+	y := math.Min(psat/p, 1)
+	xg := 0.0
+	var lnPhiV float64
+	for it := 0; it < 200; it++ {
+		var lnPhiG float64
+		if s.water {
+			lnPhiV = fluid.WaterInAirLnPhi(T, p, y)
+		} else {
+			var lnPhiGL float64
+			lnPhiV, lnPhiG, _ = s.bin.LnPhi(T, p, 1-y, flash.VaporPhase)
+			_, lnPhiGL, _ = s.bin.LnPhi(T, p, xg, flash.LiquidPhase)
+			lnPhiG -= lnPhiGL
+		}
+		yNew := (1 - xg) * fL / (math.Exp(lnPhiV) * p)
+		var xNew float64
+		if s.water {
+			xNew, _ = fluid.WaterDissolvedGas(s.gasID, T, math.Max(1-yNew, 0)*p)
+		} else {
+			xNew = math.Max(1-yNew, 0) * math.Exp(lnPhiG)
+		}
+		done := math.Abs(yNew-y) <= 1e-13*math.Max(y, 1e-300) && math.Abs(xNew-xg) <= 1e-13*math.Max(xg, 1e-300)+1e-300
+		y, xg = yNew, xNew
+		if done || !(y > 0) || math.IsInf(y, 0) {
+			break
+		}
+	}
+	if !(y > 0) || math.IsInf(y, 0) || math.IsNaN(xg) || xg >= 1 {
+		return evap.FlatEquilibrium{}, fmt.Errorf("calc: no flat-surface equilibrium at %s K and %s Pa: %w", valid.FormatValue(T), valid.FormatValue(p), evap.ErrTranscritical)
+	}
+	return s.store(T, psat, out, y, xg, lnPhiSat, lnPhiV), nil
+}
+
+// store completes and keeps the flat equilibrium at T.
+func (s *surfaceEquilibrium) store(T, psat float64, out evap.FlatEquilibrium, y, xg, lnPhiSat, lnPhiV float64) evap.FlatEquilibrium {
+	out.VaporMoleFraction = y
+	out.VaporPressure = y * s.p
+	out.FugacityFactor = math.Exp(lnPhiSat - lnPhiV)
+	out.Enhancement = out.VaporPressure / psat
+	out.DissolvedGas = xg
+	s.lastT, s.last = T, out
+	return out
+}
+
+// offset is the raise of ln φ_1 in the liquid that makes the
+// Peng–Robinson split take the liquid's own pure-liquid fugacity
+// p_sat φ_sat exp(v_L (p − p_sat)/(R T)) (see flash.Binary.FlashOffset).
+func (s *surfaceEquilibrium) offset(T float64) float64 {
+	l, p := s.l, s.p
+	psat := l.SaturationPressure(T)
+	vL := l.MolarMass() / l.Density(T)
+	fL := psat * math.Exp(s.bin.Liquid.PureVaporLnPhi(T, psat)) * evap.PoyntingFactor(vL, psat, p, T)
+	return math.Log(fL/p) - s.bin.Liquid.PureLiquidLnPhi(T, p)
+}
+
+// equilibriumBlock is the result's flat-surface equilibrium at the
+// reference temperature t (K), or nil when the case has none or it cannot
+// be evaluated there.
+func equilibriumBlock(cond *evap.Conditions, t float64) *Equilibrium {
+	s, ok := cond.Equilibrium.(*surfaceEquilibrium)
+	if !ok || s == nil {
+		return nil
+	}
+	f, err := s.flat(t)
+	if err != nil {
+		return nil
+	}
+	e := &Equilibrium{TemperatureK: t, FlatVaporPressurePa: f.VaporPressure, PoyntingFactor: f.PoyntingFactor,
+		FugacityFactor: f.FugacityFactor, EnhancementFactor: f.Enhancement, DissolvedGasMoleFraction: f.DissolvedGas,
+		Method: s.method}
+	if s.crit {
+		tc := s.tcrit
+		e.MixtureCriticalTemperatureK = &tc
+	}
+	return e
+}
+
+// markTranscritical marks the classes whose surface reaches the mixture
+// critical point: under the steady temperature at once (their state is
+// the one just below it), under transient heating at the time the history
+// found. Their lifetimes are withdrawn and one warning says when and
+// where, in plain words.
+func (s *setup) markTranscritical(cond *evap.Conditions, res *Result) {
+	first, last := -1, -1
+	tFirst, tLast := math.Inf(1), math.Inf(-1)
+	firstClass := -1
+	count := 0
+	for i := range res.Bins {
+		t := -1.0
+		if s.criticalTimes != nil {
+			if s.criticalTimes[i] >= 0 {
+				t = s.criticalTimes[i]
+				res.Bins[i].Transcritical = true
+			}
+		} else if res.Bins[i].Transcritical {
+			t = 0
+		}
+		if t < 0 {
+			continue
+		}
+		res.Bins[i].LifetimeS = nil
+		count++
+		if first < 0 {
+			first = i
+		}
+		last = i
+		if t < tFirst {
+			tFirst, firstClass = t, i
+		}
+		tLast = math.Max(tLast, t)
+	}
+	if count == 0 {
+		return
+	}
+	tc, _ := cond.Equilibrium.CriticalTemperature()
+	when := "at once (the steady surface temperature lies past it)"
+	if s.criticalTimes != nil {
+		when = "at " + formatDuration(tFirst)
+	}
+	classes := fmt.Sprintf("class %d (%.3g µm)", firstClass+1, res.Bins[firstClass].DM*1e6)
+	if count > 1 {
+		span := ""
+		if s.criticalTimes != nil && tLast > tFirst {
+			span = fmt.Sprintf(", the last at %s", formatDuration(tLast))
+		}
+		classes += fmt.Sprintf("; %d of %d classes reach it, from %.3g to %.3g µm%s", count, len(res.Bins),
+			res.Bins[first].DM*1e6, res.Bins[last].DM*1e6, span)
+	}
+	res.Warnings = append(res.Warnings, fmt.Sprintf("The surface reaches the mixture critical point of %s and %s (%.1f K at %s bar) %s, first in %s; after that the drop mixes as a dense fluid, which this model does not follow. Those classes are marked transcritical and have no lifetime; the history carries them on with the surface held just below that temperature, an indication only.",
+		s.liquid.Name, s.gas.Name, tc, formatBar(s.c.Gas.PressurePa), when, classes))
+}
+
+// formatDuration writes a time in s, ms or µs as suits it.
+func formatDuration(t float64) string {
+	switch {
+	case t >= 1:
+		return fmt.Sprintf("%.3g s", t)
+	case t >= 1e-3:
+		return fmt.Sprintf("%.3g ms", t*1e3)
+	}
+	return fmt.Sprintf("%.3g µs", t*1e6)
+}
+
+// formatBar writes a pressure in Pa as bar.
+func formatBar(p float64) string { return fmt.Sprintf("%.4g", p/1e5) }
