@@ -7,6 +7,7 @@ import (
 	"fogbench/calc/evap"
 	"fogbench/calc/flash"
 	"fogbench/calc/fluid"
+	"fogbench/calc/phys"
 	"fogbench/calc/valid"
 )
 
@@ -99,7 +100,7 @@ func newSurfaceEquilibrium(l *fluid.Liquid, g *fluid.Gas, p float64) *surfaceEqu
 	if g.ID == "air" {
 		gasWord = "air as one pseudo-component with the N2 value"
 	}
-	s.method = fmt.Sprintf("Peng–Robinson (1976) with van der Waals mixing for φ_v, φ_sat and the dissolved gas; k_ij = %.4g for %s: %s, %s; Poynting integral with the liquid's own molar volume, taken incompressible", kij, gasWord, note, kijSource)
+	s.method = fmt.Sprintf("Peng–Robinson (1976) with van der Waals mixing for φ_v, φ_sat and the dissolved gas; k_ij = %.4g for %s: %s, %s; Poynting integral with the liquid's own molar volume, taken incompressible; latent heat at the surface from the liquid's L(T) corrected by Peng–Robinson departure functions", kij, gasWord, note, kijSource)
 	if p >= l.CriticalPressure() {
 		lo := math.Max(l.MeltingPoint(), 0.5*l.CriticalTemperature())
 		if tc, err := s.bin.CriticalTemperatureOffset(p, lo, s.offset); err == nil {
@@ -149,6 +150,7 @@ func (s *surfaceEquilibrium) flat(T float64) (evap.FlatEquilibrium, error) {
 		sp, err := s.bin.FlashOffset(T, p, math.Log(fL/p)-s.bin.Liquid.PureLiquidLnPhi(T, p))
 		if err == nil {
 			lnPhiV, _, _ := s.bin.LnPhi(T, p, sp.Y2, flash.VaporPhase)
+			out.LatentHeatFactor = s.latentHeatFactor(T, p, psat, sp.X2, sp.Y2)
 			return s.store(T, psat, out, 1-sp.Y2, sp.X2, lnPhiSat, lnPhiV), nil
 		}
 		if s.crit {
@@ -158,6 +160,7 @@ func (s *surfaceEquilibrium) flat(T float64) (evap.FlatEquilibrium, error) {
 		// to the boiling point, where both phases are nearly pure: there
 		// the ideal-solution iteration below is as good.
 	}
+	out.LatentHeatFactor = 1
 	y := math.Min(psat/p, 1)
 	xg := 0.0
 	var lnPhiV float64
@@ -188,6 +191,62 @@ func (s *surfaceEquilibrium) flat(T float64) (evap.FlatEquilibrium, error) {
 		return evap.FlatEquilibrium{}, fmt.Errorf("calc: no flat-surface equilibrium at %s K and %s Pa: %w", valid.FormatValue(T), valid.FormatValue(p), evap.ErrTranscritical)
 	}
 	return s.store(T, psat, out, y, xg, lnPhiSat, lnPhiV), nil
+}
+
+// LatentHeatFactor implements evap.SurfaceEquilibrium: the factor of the
+// last flat equilibrium at T, or 1 when none was computed there.
+func (s *surfaceEquilibrium) LatentHeatFactor(T float64) float64 {
+	if T != s.lastT || !(s.last.LatentHeatFactor > 0) {
+		return 1
+	}
+	return s.last.LatentHeatFactor
+}
+
+// latentHeatFactor returns the latent heat of the liquid's substance at the
+// surface state over that of the pure liquid at saturation, both from
+// Peng–Robinson departure functions. The molar enthalpy of vaporisation
+// into the gas at the surface is the difference of the partial molar
+// enthalpies of component 1 in the vapor (y) and the liquid (x) at (T, p);
+// the ideal-gas parts cancel and each departure is
+// h̄_1 − h_1^ig = −R T² (∂ ln φ_1/∂T) at constant p and composition
+// (e.g. Prausnitz, Lichtenthaler & de Azevedo, 3rd ed., ch. 3 — from memory
+// for the chapter), so
+//
+//	ΔH_surface = −R T² [∂ ln φ_1^V/∂T − ∂ ln φ_1^L/∂T]  at (T, p, y), (T, p, x)
+//	ΔH_pure    = the same for the pure liquid and vapor roots at (T, p_sat)
+//
+// by central differences (±1e-3 K). The liquid's own fit L(T) is corrected
+// by the difference, L_surface = L(T) + (ΔH_surface − ΔH_pure)/M, so that it
+// stays right at low pressure (the factor tends to 1) and carries the
+// equation of state's change with pressure and dissolved gas; a ratio
+// ΔH_surface/ΔH_pure would blow up near the pure Tc, where ΔH_pure falls
+// to 0. The factor L_surface/L(T) is kept at or above 0.02 so the heat
+// balance stays defined next to the critical limit. Where the pure cubic
+// has a single root at p_sat (within a few kelvin of Tc) the factor is 1.
+func (s *surfaceEquilibrium) latentHeatFactor(T, p, psat, x2, y2 float64) float64 {
+	surface := vaporisationEnthalpy(s.bin, T, p, x2, y2)
+	pure := vaporisationEnthalpy(flash.Binary{Liquid: s.bin.Liquid, Gas: s.bin.Liquid}, T, psat, 0, 0)
+	lfit := s.l.LatentHeat(T)
+	if !(pure > 0) || !(surface >= 0) || !(lfit > 0) {
+		return 1
+	}
+	f := 1 + (surface-pure)/(s.l.MolarMass()*lfit)
+	return math.Max(f, 0.02)
+}
+
+// vaporisationEnthalpy returns h̄_1^V − h̄_1^L in J/mol, the enthalpy to move
+// one mole of component 1 from the liquid of gas fraction x2 to the vapor
+// of gas fraction y2 at T (K) and p (Pa):
+// R T² [∂ ln φ_1^L/∂T − ∂ ln φ_1^V/∂T] at constant p and compositions, by
+// central differences of ±1e-3 K.
+func vaporisationEnthalpy(m flash.Binary, T, p, x2, y2 float64) float64 {
+	const h = 1e-3
+	d := func(z float64, phase flash.Phase) float64 {
+		up, _, _ := m.LnPhi(T+h, p, z, phase)
+		dn, _, _ := m.LnPhi(T-h, p, z, phase)
+		return (up - dn) / (2 * h)
+	}
+	return phys.GasConstant * T * T * (d(x2, flash.LiquidPhase) - d(y2, flash.VaporPhase))
 }
 
 // store completes and keeps the flat equilibrium at T.
@@ -226,7 +285,7 @@ func equilibriumBlock(cond *evap.Conditions, t float64) *Equilibrium {
 	}
 	e := &Equilibrium{TemperatureK: t, FlatVaporPressurePa: f.VaporPressure, PoyntingFactor: f.PoyntingFactor,
 		FugacityFactor: f.FugacityFactor, EnhancementFactor: f.Enhancement, DissolvedGasMoleFraction: f.DissolvedGas,
-		Method: s.method}
+		LatentHeatJKg: s.l.LatentHeat(t) * f.LatentHeatFactor, Method: s.method}
 	if s.crit {
 		tc := s.tcrit
 		e.MixtureCriticalTemperatureK = &tc

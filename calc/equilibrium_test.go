@@ -11,6 +11,7 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 
 	"fogbench/calc/evap"
+	"fogbench/calc/flash"
 	"fogbench/calc/fluid"
 )
 
@@ -306,5 +307,52 @@ func TestTranscriticalClassesAreMarked(t *testing.T) {
 				t.Errorf("%s: internal wording in a warning: %q", heating, s)
 			}
 		}
+	}
+}
+
+// The Peng–Robinson enthalpy of vaporisation from departure functions
+// (vaporisationEnthalpy) obeys the Clapeyron equation of the same model,
+// ΔH = T Δv dp_sat/dT, for pure n-heptane and n-dodecane (an identity of
+// thermodynamics, so an independent check of the derivative code; dp_sat/dT
+// by central differences of flash.PengRobinson.SaturationPressure).
+func TestVaporisationEnthalpyClapeyron(t *testing.T) {
+	for _, id := range []string{"n-heptane", "n-dodecane"} {
+		l, _ := fluid.Lookup(id)
+		s := equilibriumFor(t, id, "nitrogen", 101325)
+		pure := flash.Binary{Liquid: s.bin.Liquid, Gas: s.bin.Liquid}
+		for _, tr := range []float64{0.6, 0.75, 0.9} {
+			T := tr * l.CriticalTemperature()
+			ps, _ := s.bin.Liquid.SaturationPressure(T)
+			up, _ := s.bin.Liquid.SaturationPressure(T + 0.01)
+			dn, _ := s.bin.Liquid.SaturationPressure(T - 0.01)
+			_, _, zl := pure.LnPhi(T, ps, 0, flash.LiquidPhase)
+			_, _, zv := pure.LnPhi(T, ps, 0, flash.VaporPhase)
+			dv := (zv - zl) * 8.314462618 * T / ps
+			clapeyron := T * dv * (up - dn) / 0.02
+			got := vaporisationEnthalpy(pure, T, ps, 0, 0)
+			if !scalar.EqualWithinAbsOrRel(got, clapeyron, 0, 1e-5) {
+				t.Errorf("%s at %.1f K: ΔH %g J/mol, Clapeyron %g", id, T, got, clapeyron)
+			}
+		}
+	}
+}
+
+// The latent heat at the surface tends to the liquid's own L(T) as the gas
+// pressure falls (0.2 % at 0.1 bar) and drops with pressure and dissolved
+// gas: at 60 bar of N2 n-dodecane at 600 K keeps 70–95 % of it.
+func TestSurfaceLatentHeat(t *testing.T) {
+	low, err := equilibriumFor(t, "n-dodecane", "nitrogen", 1e4).flat(420)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(low.LatentHeatFactor-1) > 2e-3 {
+		t.Errorf("factor at 0.1 bar %g", low.LatentHeatFactor)
+	}
+	high, err := equilibriumFor(t, "n-dodecane", "nitrogen", 6e6).flat(600)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !(high.LatentHeatFactor > 0.7 && high.LatentHeatFactor < 0.95) {
+		t.Errorf("factor at 60 bar, 600 K: %g", high.LatentHeatFactor)
 	}
 }

@@ -87,6 +87,10 @@ type Equilibrium struct {
 	EnhancementFactor float64 `json:"enhancement_factor"`
 	// DissolvedGasMoleFraction is 1 − x_L.
 	DissolvedGasMoleFraction float64 `json:"dissolved_gas_mole_fraction"`
+	// LatentHeatJKg is the heat of vaporisation at the surface state at the
+	// gas pressure (the liquid's L(T) corrected by Peng–Robinson departure
+	// functions; L(T) itself for water), J/kg.
+	LatentHeatJKg float64 `json:"latent_heat_j_kg"`
 	// MixtureCriticalTemperatureK is the surface temperature at which the
 	// surface reaches the mixture critical point at the gas pressure
 	// (only at or above the liquid's critical pressure).

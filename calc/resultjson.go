@@ -327,6 +327,8 @@ func (w *jsonWriter) equilibrium(e *Equilibrium) {
 	w.float(e.EnhancementFactor)
 	w.raw(`,"dissolved_gas_mole_fraction":`)
 	w.float(e.DissolvedGasMoleFraction)
+	w.raw(`,"latent_heat_j_kg":`)
+	w.float(e.LatentHeatJKg)
 	if e.MixtureCriticalTemperatureK != nil {
 		w.raw(`,"mixture_critical_temperature_k":`)
 		w.float(*e.MixtureCriticalTemperatureK)

@@ -141,6 +141,7 @@ func (c *Conditions) evaluateAt(d, ts float64, curved bool, cache *liquidAt) (dr
 				return e, err
 			}
 			e.flat = f
+			e.lat *= c.Equilibrium.LatentHeatFactor(ts)
 		}
 		if cache != nil {
 			*cache = liquidAt{ts: ts, psat: e.psat, sigma: e.sigma, rhoL: e.rhoL, lat: e.lat, flat: e.flat, ok: true}

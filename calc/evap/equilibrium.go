@@ -26,6 +26,12 @@ type SurfaceEquilibrium interface {
 	// the vapor over a flat surface at surface temperature T (K), in Pa;
 	// the error wraps ErrTranscritical past CriticalTemperature.
 	FlatVaporPressure(T float64) (float64, error)
+	// LatentHeatFactor returns, after FlatVaporPressure at the same T,
+	// the latent heat of the liquid's substance at the surface state
+	// (liquid and vapor at the gas pressure, with the gas mixed in) over
+	// the liquid's own L(T) at saturation: evap multiplies L(T) by it. It
+	// falls to 0 at the mixture critical point.
+	LatentHeatFactor(T float64) float64
 	// CriticalTemperature returns the surface temperature in K at which
 	// the surface reaches the mixture critical point at the gas pressure,
 	// and ok = false when no such limit lies below the liquid's boiling
@@ -63,6 +69,7 @@ type FlatEquilibrium struct {
 	FugacityFactor     float64 // φ_sat/φ_v
 	Enhancement        float64 // y_v p / p_sat
 	DissolvedGas       float64 // 1 − x_L, mole fraction of gas in the liquid
+	LatentHeatFactor   float64 // latent heat at the surface state over that of the pure liquid at saturation
 	VaporMoleFraction  float64 // y_v
 	CriticalLimit      float64 // K; 0 when none applies
 	CriticalLimitFound bool
