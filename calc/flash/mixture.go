@@ -200,7 +200,9 @@ func (m Binary) FlashOffset(T, p, d1 float64) (Split, error) {
 		y2 = k2 * x2
 		return x2, y2, x2 > 0 && x2 < 1 && y2 > 0 && y2 < 1
 	}
-	none := fmt.Errorf("T = %s K, p = %s Pa: %w", valid.FormatValue(T), valid.FormatValue(p), ErrNoTwoPhase)
+	none := func() error {
+		return fmt.Errorf("T = %s K, p = %s Pa: %w", valid.FormatValue(T), valid.FormatValue(p), ErrNoTwoPhase)
+	}
 	x2, y2, ok := split(lk1, lk2)
 	if !ok {
 		// Wilson's estimate says one phase; start from a split that is
@@ -230,7 +232,7 @@ func (m Binary) FlashOffset(T, p, d1 float64) (Split, error) {
 	for it := 0; it < 50; it++ {
 		r1, r2 := res(x2, y2)
 		if math.IsNaN(r1) || math.IsNaN(r2) {
-			return Split{}, none
+			return Split{}, none()
 		}
 		if math.Abs(r1)+math.Abs(r2) < 1e-13 {
 			break
@@ -255,7 +257,7 @@ func (m Binary) FlashOffset(T, p, d1 float64) (Split, error) {
 	}
 	r1, r2 := res(x2, y2)
 	if !(math.Abs(r1)+math.Abs(r2) < 1e-9) || !(math.Abs(y2-x2) > criticalGap) || !(y2 > x2) {
-		return Split{}, none
+		return Split{}, none()
 	}
 	return Split{X2: x2, Y2: y2}, nil
 }

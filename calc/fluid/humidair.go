@@ -85,9 +85,29 @@ func airWaterCrossVirial(T float64) (baw, caaw, caww float64) {
 // beyond, an extrapolation the caller must flag. With x = 1 it is the
 // fugacity coefficient of pure water vapor.
 func WaterInAirLnPhi(T, p, x float64) float64 {
-	bww, cwww := iapws95Virial(T)
-	baa, caaa := airVirial(T)
-	baw, caaw, caww := airWaterCrossVirial(T)
+	return NewHumidAirVirial(T).LnPhi(p, x)
+}
+
+// HumidAirVirial holds the virial coefficients of humid air at one
+// temperature, so that ln φ_w at many (p, x) costs no more powers.
+type HumidAirVirial struct {
+	T                                     float64
+	bww, cwww, baa, caaa, baw, caaw, caww float64
+}
+
+// NewHumidAirVirial evaluates the coefficients of WaterInAirLnPhi at T (K).
+func NewHumidAirVirial(T float64) HumidAirVirial {
+	v := HumidAirVirial{T: T}
+	v.bww, v.cwww = iapws95Virial(T)
+	v.baa, v.caaa = airVirial(T)
+	v.baw, v.caaw, v.caww = airWaterCrossVirial(T)
+	return v
+}
+
+// LnPhi is WaterInAirLnPhi at the coefficients' temperature.
+func (v HumidAirVirial) LnPhi(p, x float64) float64 {
+	T := v.T
+	bww, cwww, baa, caaa, baw, caaw, caww := v.bww, v.cwww, v.baa, v.caaa, v.baw, v.caaw, v.caww
 	y := 1 - x
 	beta := x*(2-x)*bww + y*y*(2*baw-baa)
 	gamma := x*x*(3-2*x)*cwww + y*y*(6*x*caww+3*(1-2*x)*caaw-2*y*caaa) +
@@ -117,14 +137,21 @@ func henryWater(T, A, B, C float64) float64 {
 // U.S. Standard Atmosphere 1976, from memory, each by its own k_H). Other
 // gases return 0 and false.
 func WaterDissolvedGas(gasID string, T, pg float64) (float64, bool) {
+	s, ok := WaterGasSolubility(gasID, T)
+	return pg * s, ok
+}
+
+// WaterGasSolubility returns the Henry's-law slope x/p_g (1/Pa) of
+// WaterDissolvedGas at T (K), and false for a gas it does not know.
+func WaterGasSolubility(gasID string, T float64) (float64, bool) {
 	n2 := henryWater(T, -9.67578, 4.72162, 11.70585)
 	switch gasID {
 	case "nitrogen":
-		return pg / n2, true
+		return 1 / n2, true
 	case "air":
 		o2 := henryWater(T, -9.44833, 4.43822, 11.42005)
 		ar := henryWater(T, -8.40954, 4.29587, 10.52779)
-		return pg * (0.7809/n2 + 0.2095/o2 + 0.0093/ar), true
+		return 0.7809/n2 + 0.2095/o2 + 0.0093/ar, true
 	}
 	return 0, false
 }
