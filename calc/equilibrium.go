@@ -206,9 +206,10 @@ func (s *surfaceEquilibrium) FlatVaporPressure(T float64) (float64, error) {
 
 // flat solves the flat-surface equilibrium at surface temperature T (K):
 // y_v from equal fugacities of the liquid's substance and the dissolved
-// gas x_g from equal fugacities of the gas (Peng–Robinson in both phases;
-// Henry's law for water), by successive substitution from y_v = p_sat/p,
-// x_g = 0 to 1e-13 in both. At p = p_sat the gas is gone (y_v = 1, x_g =
+// gas x_g from equal fugacities of the gas: for organic liquids the
+// Peng–Robinson split of flash.Binary.FlashOffset (see offset), for water
+// the virial guideline and Henry's law by successive substitution from
+// y_v = p_sat/p, x_g = 0 to 1e-13 in both. At p = p_sat the gas is gone (y_v = 1, x_g =
 // 0, φ_v = φ_sat) and the result is p_sat exactly.
 func (s *surfaceEquilibrium) flat(T float64) (evap.FlatEquilibrium, error) {
 	if T == s.lastT {
@@ -255,30 +256,42 @@ func (s *surfaceEquilibrium) solve(T float64) (evap.FlatEquilibrium, error) {
 			return evap.FlatEquilibrium{}, fmt.Errorf("calc: surface at %s K: %w", valid.FormatValue(T), evap.ErrTranscritical)
 		}
 		// Below the liquid's critical pressure the split fails only next
-		// to the boiling point, where both phases are nearly pure: there
-		// the ideal-solution iteration below is as good.
+		// to (or past) the boiling point, where the vapor at the surface
+		// is nearly pure and the gas barely dissolves: there the liquid
+		// is taken pure (x_L = 1) and y_v solves y_v φ_v(y_v) p = f_L alone,
+		// by a damped fixed point; failing that, φ_v = 1.
+		out.LatentHeatFactor = 1
+		y := math.Min(fL/p, 1)
+		var lnPhiV float64
+		ok := false
+		for it := 0; it < 200; it++ {
+			lnPhiV, _, _ = s.bin.LnPhi(T, p, 1-math.Min(y, 1), flash.VaporPhase)
+			yNew := fL / (math.Exp(lnPhiV) * p)
+			if !(yNew > 0) || math.IsInf(yNew, 0) {
+				break
+			}
+			if math.Abs(yNew-y) <= 1e-13*y {
+				y, ok = yNew, true
+				break
+			}
+			y = 0.5 * (y + yNew)
+		}
+		if !ok {
+			y, lnPhiV = fL/p, 0
+		}
+		return s.store(T, psat, out, y, 0, lnPhiSat, lnPhiV), nil
 	}
 	out.LatentHeatFactor = 1
 	y := math.Min(psat/p, 1)
 	xg := 0.0
 	var lnPhiV float64
+	// Water: the virial fugacity coefficient and Henry's law, by
+	// successive substitution (the vapor is dilute in the gas or the gas
+	// in the vapor; both converge in a few steps).
 	for it := 0; it < 200; it++ {
-		var lnPhiG float64
-		if s.water {
-			lnPhiV = vir.LnPhi(p, y)
-		} else {
-			var lnPhiGL float64
-			lnPhiV, lnPhiG, _ = s.bin.LnPhi(T, p, 1-y, flash.VaporPhase)
-			_, lnPhiGL, _ = s.bin.LnPhi(T, p, xg, flash.LiquidPhase)
-			lnPhiG -= lnPhiGL
-		}
+		lnPhiV = vir.LnPhi(p, y)
 		yNew := (1 - xg) * fL / (math.Exp(lnPhiV) * p)
-		var xNew float64
-		if s.water {
-			xNew = math.Max(1-yNew, 0) * p * henry
-		} else {
-			xNew = math.Max(1-yNew, 0) * math.Exp(lnPhiG)
-		}
+		xNew := math.Max(1-yNew, 0) * p * henry
 		done := math.Abs(yNew-y) <= 1e-13*math.Max(y, 1e-300) && math.Abs(xNew-xg) <= 1e-13*math.Max(xg, 1e-300)+1e-300
 		y, xg = yNew, xNew
 		if done || !(y > 0) || math.IsInf(y, 0) {
