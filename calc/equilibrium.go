@@ -471,3 +471,25 @@ func formatDuration(t float64) string {
 
 // formatBar writes a pressure in Pa as bar.
 func formatBar(p float64) string { return fmt.Sprintf("%.4g", p/1e5) }
+
+// saturationEnhancement returns the enhancement factor f = y_v p/p_sat of
+// the flat-surface equilibrium at the gas temperature T (K) and pressure p
+// (Pa), by which a relative humidity is turned into a mole fraction: the
+// WMO definition of relative humidity in moist air takes it against the
+// saturation mole fraction x_vs = f p_sat/p (WMO Guide to Instruments and
+// Methods of Observation, annex on humidity formulae — from memory), so
+// that relative_humidity 1 is saturated over a flat surface of the liquid
+// at the real pressure. It is 1 where the equilibrium does not apply (no
+// equation-of-state constants for the gas, T past the boiling point or
+// the critical limit).
+func saturationEnhancement(l *fluid.Liquid, g *fluid.Gas, p, T float64) float64 {
+	s := newSurfaceEquilibrium(l, g, p)
+	if s == nil || l.SaturationPressure(T) >= p {
+		return 1
+	}
+	f, err := s.flat(T)
+	if err != nil || !(f.Enhancement > 0) || math.IsInf(f.Enhancement, 0) {
+		return 1
+	}
+	return f.Enhancement
+}

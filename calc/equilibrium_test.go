@@ -479,3 +479,28 @@ func TestPressureSweepEndsInResultOrFieldError(t *testing.T) {
 	}
 	t.Logf("%d of %d evaluated, %d with transcritical classes", evaluated, n, transcritical)
 }
+
+// relative_humidity 1 is saturated air: the far-field mole fraction is
+// taken against the flat-surface equilibrium at the gas temperature and
+// pressure (x = RH·f·p_sat/p, the WMO definition in moist air), so water
+// drops at the gas temperature in saturated air evaporate only by their
+// Kelvin raise. Read as RH·p_sat/p alone, the air sat 0.42 % below the
+// flat-surface equilibrium at 1 atm and the largest drop's lifetime fell
+// from about 1.1e4 s to 143 s.
+func TestRelativeHumidityOneIsSaturated(t *testing.T) {
+	k := Case{Format: CaseFormat, Name: "saturated", Fluid: "water", LiquidTemperatureK: ptr(298.15),
+		Gas:          Gas{ID: "air", PressurePa: 101325, TemperatureK: 298.15, RelativeHumidity: ptr(1)},
+		Distribution: Distribution{Model: "rosin-rammler", XM: 30e-6, Q: 2.5, Bins: 10}}
+	res, err := Evaluate(k)
+	if err != nil {
+		t.Fatal(err)
+	}
+	flat := res.Equilibrium.FlatVaporPressurePa / 101325
+	if x := res.Properties.AmbientVaporMoleFraction; !scalar.EqualWithinAbsOrRel(x, flat, 0, 1e-9) {
+		t.Errorf("ambient mole fraction %.9g, flat-surface equilibrium %.9g", x, flat)
+	}
+	last := res.Bins[len(res.Bins)-1]
+	if last.LifetimeS == nil || *last.LifetimeS < 5000 {
+		t.Errorf("largest class lifetime %v in saturated air", last.LifetimeS)
+	}
+}

@@ -117,6 +117,9 @@ func prepare(c Case) (*setup, error) {
 		x, err := ambientVapor(c.Gas, l)
 		add(err)
 		s.xInf = x
+		if err == nil && c.Gas.RelativeHumidity != nil && g != nil {
+			s.xInf = math.Min(x*saturationEnhancement(l, g, c.Gas.PressurePa, c.Gas.TemperatureK), 1-1e-9)
+		}
 	}
 	add(checkEvaporation(c.Evaporation))
 	if l != nil && g != nil && len(errs) == 0 {
