@@ -504,3 +504,37 @@ func TestRelativeHumidityOneIsSaturated(t *testing.T) {
 		t.Errorf("largest class lifetime %v in saturated air", last.LifetimeS)
 	}
 }
+
+// The Kelvin critical radius in supersaturated surroundings is where the
+// rates change sign: it is taken against the same flat-surface equilibrium
+// as the rates (water at 20 °C, 1 atm, 0.8 % above the flat-surface
+// equilibrium: against p_sat alone r* came out at 88.8 nm, where the drops
+// still evaporate; the rates change sign at 135.2 nm).
+func TestEquilibriumRadiusMatchesRates(t *testing.T) {
+	l, _ := fluid.Lookup("water")
+	g, _ := fluid.LookupGas("air")
+	T, p := 293.15, 101325.0
+	s := newSurfaceEquilibrium(l, g, p)
+	flat, err := s.FlatVaporPressure(T)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cond := &evap.Conditions{Liquid: l, Gas: filmAdapter{fluid.NewFilmCache(l, g)}, GasMolarMass: g.MolarMass(),
+		Pressure: p, GasTemperature: T, VaporMoleFraction: 1.008 * flat / p, Curvature: true,
+		Convection: evap.ConvectionNone, Equilibrium: s}
+	r, ok, err := cond.EquilibriumRadius(T)
+	if err != nil || !ok {
+		t.Fatalf("r* %g %v %v", r, ok, err)
+	}
+	below, err := cond.Drop(2*r*0.99, T)
+	if err != nil {
+		t.Fatal(err)
+	}
+	above, err := cond.Drop(2*r*1.01, T)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !(below.MassRate > 0 && above.MassRate < 0) {
+		t.Errorf("r* = %g m: rate %g just below, %g just above", r, below.MassRate, above.MassRate)
+	}
+}

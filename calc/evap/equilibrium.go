@@ -155,3 +155,14 @@ func (sp *sprayPaths) criticalTimes() []float64 {
 	}
 	return out
 }
+
+// flatPressure returns the flat-surface vapor pressure at ts (K) the rates
+// use: the Equilibrium's, or p_sat without one (or where it fails).
+func (c *Conditions) flatPressure(ts float64) float64 {
+	if c.Equilibrium != nil {
+		if p, err := c.Equilibrium.FlatVaporPressure(ts); err == nil {
+			return p
+		}
+	}
+	return c.Liquid.SaturationPressure(ts)
+}

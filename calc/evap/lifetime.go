@@ -150,7 +150,10 @@ func (c *Conditions) LifetimeReport(d0 float64, opts LifetimeOptions) (LifetimeR
 // It exists only for a supersaturated far field (S_∞ > 1) with Curvature on;
 // ok is false otherwise (every size evaporates when S_∞ ≤ 1, none when S_∞ > 1
 // and the surface is flat). At equilibrium ṁ = 0, so with the steady
-// temperature Ts = T_∞. Source: the Kelvin equation (see KelvinRatio).
+// temperature Ts = T_∞. S_∞ is taken against the flat-surface equilibrium
+// at the gas pressure (Conditions.Equilibrium; p_sat without it), the
+// same vapor pressure the rates use. Source: the Kelvin equation (see
+// KelvinRatio).
 func (c *Conditions) EquilibriumRadius(Ts float64) (r float64, ok bool, err error) {
 	if err := c.Validate(); err != nil {
 		return 0, false, err
@@ -164,7 +167,7 @@ func (c *Conditions) EquilibriumRadius(Ts float64) (r float64, ok bool, err erro
 
 func (c *Conditions) equilibriumRadius(ts float64) (float64, bool) {
 	l := c.Liquid
-	ps := l.SaturationPressure(ts)
+	ps := c.flatPressure(ts)
 	sAmb := c.VaporMoleFraction * c.Pressure / ps
 	if !c.Curvature || !(sAmb > 1) || math.IsInf(sAmb, 0) {
 		return 0, false
