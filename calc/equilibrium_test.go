@@ -538,3 +538,36 @@ func TestEquilibriumRadiusMatchesRates(t *testing.T) {
 		t.Errorf("r* = %g m: rate %g just below, %g just above", r, below.MassRate, above.MassRate)
 	}
 }
+
+// The equilibrium's sources are flagged where they are stretched: the water
+// virial guideline beyond 5 MPa, and an interaction parameter carried over
+// from another alkane at high pressure; a tabulated pair at 1 atm is not.
+func TestEquilibriumWarnings(t *testing.T) {
+	for _, c := range []struct {
+		fluid, gas string
+		p, T       float64
+		want       string
+	}{
+		{"water", "air", 6e6, 600, "IAPWS virial guideline"},
+		{"kerosene-surrogate", "air", 20e5, 700, "No published nitrogen interaction parameter"},
+		{"n-heptane", "nitrogen", 20e5, 600, ""},
+		{"water", "air", 101325, 300, ""},
+	} {
+		k := Case{Format: CaseFormat, Name: c.fluid, Fluid: c.fluid,
+			Gas:          Gas{ID: c.gas, PressurePa: c.p, TemperatureK: c.T},
+			Distribution: Distribution{Model: "rosin-rammler", XM: 30e-6, Q: 2.5, Bins: 6}}
+		res, err := Evaluate(k)
+		if err != nil {
+			t.Fatal(err)
+		}
+		found := ""
+		for _, w := range res.Warnings {
+			if strings.Contains(w, "IAPWS virial guideline") || strings.Contains(w, "interaction parameter") || strings.Contains(w, "Henry") {
+				found = w
+			}
+		}
+		if (c.want == "") != (found == "") || !strings.Contains(found, c.want) {
+			t.Errorf("%s in %s at %g Pa: warning %q, want one containing %q", c.fluid, c.gas, c.p, found, c.want)
+		}
+	}
+}

@@ -561,6 +561,7 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 		return nil, err
 	}
 	s.markTranscritical(cond, res)
+	s.equilibriumWarnings(cond, res)
 	return res, nil
 }
 
