@@ -90,7 +90,7 @@ func newSurfaceEquilibrium(l *fluid.Liquid, g *fluid.Gas, p float64) *surfaceEqu
 	s := &surfaceEquilibrium{l: l, gasID: g.ID, p: p, lastT: math.NaN(), qT: math.NaN()}
 	if l.ID == "water" {
 		s.water = true
-		s.method = fmt.Sprintf("water vapor in %s: fugacity coefficients by the IAPWS Guideline on a Virial Equation for the Fugacity of H2O in Humid Air (G11-15), dissolved gas by Henry's law with the IAPWS G7-04 constants, Poynting integral with the incompressible saturated liquid", g.Name)
+		s.method = fmt.Sprintf("water vapor in %s: fugacity coefficients by the IAPWS Guideline on a Virial Equation for the Fugacity of H2O in Humid Air (G11-15), dissolved gas by Henry's law with the IAPWS G7-04 constants, Poynting integral with the incompressible saturated liquid; latent heat at the surface from the guideline's vapor enthalpy departure and the liquid's enthalpy rise with pressure", g.Name)
 		return s
 	}
 	kij, note := 0.0, "0 (no tabulated value for a user liquid)"
@@ -302,7 +302,46 @@ func (s *surfaceEquilibrium) solve(T float64) (evap.FlatEquilibrium, error) {
 	if !(y > 0) || math.IsInf(y, 0) || math.IsNaN(xg) || xg >= 1 {
 		return evap.FlatEquilibrium{}, fmt.Errorf("calc: no flat-surface equilibrium at %s K and %s Pa: %w", valid.FormatValue(T), valid.FormatValue(p), evap.ErrTranscritical)
 	}
+	out.LatentHeatFactor = s.waterLatentHeatFactor(T, psat, y)
 	return s.store(T, psat, out, y, xg, lnPhiSat, lnPhiV), nil
+}
+
+// waterLatentHeatFactor is latentHeatFactor for water: the vapor's
+// partial molar enthalpy departure in the gas at (T, p, y) from the virial
+// guideline, h̄ − h^ig = −R T² ∂ ln φ_w/∂T at constant p and y, against the
+// saturated vapor's at (T, p_sat), and the liquid raised from p_sat to p at
+// constant T, h(T, p) − h(T, p_sat) = v_L (1 − T α)(p − p_sat) with
+// α = −(1/ρ) dρ/dT of the liquid's density (incompressible; checked against
+// IAPWS-95 in TestWaterLiquidEnthalpyAtPressure):
+//
+//	L_surface = L(T) + [(h̄_V − h^ig)(p, y) − (h_V − h^ig)(p_sat, 1) − v_L (1 − T α)(p − p_sat)]/M
+//
+// Derivatives by central differences of ±1e-3 K.
+func (s *surfaceEquilibrium) waterLatentHeatFactor(T, psat, y float64) float64 {
+	const h = 1e-3
+	l, p := s.l, s.p
+	up, dn := fluid.NewHumidAirVirial(T+h), fluid.NewHumidAirVirial(T-h)
+	rt2 := phys.GasConstant * T * T
+	depMix := -rt2 * (up.LnPhi(p, y) - dn.LnPhi(p, y)) / (2 * h)
+	depSat := -rt2 * (up.LnPhi(psat, 1) - dn.LnPhi(psat, 1)) / (2 * h)
+	lfit := l.LatentHeat(T)
+	if !(lfit > 0) {
+		return 1
+	}
+	dhL := waterLiquidEnthalpyRise(l, T, psat, p) * l.MolarMass()
+	return math.Max(1+(depMix-depSat-dhL)/(l.MolarMass()*lfit), 0.02)
+}
+
+// waterLiquidEnthalpyRise returns h(T, p) − h(T, p_sat) of the liquid in
+// J/kg, v (1 − T α)(p − p_sat) with v = 1/ρ and α = −(1/ρ) dρ/dT from the
+// liquid's density by central differences of ±1e-3 K (dh = v(1 − Tα) dp at
+// constant T, e.g. Moran & Shapiro, Fundamentals of Engineering
+// Thermodynamics, ch. 11 — from memory for the chapter).
+func waterLiquidEnthalpyRise(l *fluid.Liquid, T, psat, p float64) float64 {
+	const h = 1e-3
+	rho := l.Density(T)
+	alpha := -(l.Density(T+h) - l.Density(T-h)) / (2 * h) / rho
+	return (1 - T*alpha) * (p - psat) / rho
 }
 
 // LatentHeatFactor implements evap.SurfaceEquilibrium: the factor of the

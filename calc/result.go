@@ -89,7 +89,8 @@ type Equilibrium struct {
 	DissolvedGasMoleFraction float64 `json:"dissolved_gas_mole_fraction"`
 	// LatentHeatJKg is the heat of vaporisation at the surface state at the
 	// gas pressure (the liquid's L(T) corrected by Peng–Robinson departure
-	// functions; L(T) itself for water), J/kg.
+	// functions, or for water by the virial guideline's and the liquid's
+	// enthalpy change with pressure), J/kg.
 	LatentHeatJKg float64 `json:"latent_heat_j_kg"`
 	// MixtureCriticalTemperatureK is the surface temperature at which the
 	// surface reaches the mixture critical point at the gas pressure

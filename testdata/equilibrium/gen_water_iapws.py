@@ -12,6 +12,10 @@ Gibbs energies (IAPWS95(T=, P=).g and the saturated liquid's g), the
 compressible liquid's exact integral of v dp; v_sat_m3_mol is the saturated
 liquid's molar volume (for the incompressible form).
 
+Rows of kind "liquid-dh": the enthalpy of liquid water raised from its
+vapor pressure to p at constant T, h(T, p) - h(T, p_sat) in J/kg, from
+IAPWS-95 (for the liquid part of the latent heat at the surface).
+
 Rows of kind "humid-air": the enhancement factor f = x_w p / p_sat of water
 vapor over a flat liquid surface in air at (T, p): x_w solves
     f_v(T, p, x_w) = (1 - x_air) f_sat exp(M (g(T, p) - g_sat)/(R T)),
@@ -50,6 +54,13 @@ def poynting(t, p):
     g = IAPWS95(T=t, P=p / 1e6).g * 1e3
     return exp(M * (g - gsat) / (R * t)), ps, vsat
 
+
+for t in (300.0, 400.0):
+    ps, _, _ = sat(t)
+    hsat = IAPWS95(T=t, x=0).h * 1e3
+    for p in (4e6, 10e6):
+        dh = IAPWS95(T=t, P=p / 1e6).h * 1e3 - hsat
+        print(f"liquid-dh,{t:.2f},{p:.6g},{ps:.10g},{dh:.10g},,,")
 
 for t in (300.0,):
     for p in (2e6, 10e6, 40e6):
