@@ -51,6 +51,9 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	cmd := "serve"
 	if len(args) > 0 && len(args[0]) > 0 && args[0][0] != '-' {
 		cmd, args = args[0], args[1:]
+	} else if len(args) > 0 && isHelpFlag(args[0]) {
+		// "fogbench -h" asks about fogbench, not about serve's flags.
+		cmd = "help"
 	}
 	switch cmd {
 	case "serve":
@@ -73,15 +76,27 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	return 2
 }
 
+// isHelpFlag reports whether arg is one of the spellings of a request for
+// help that the flag package answers.
+func isHelpFlag(arg string) bool {
+	switch arg {
+	case "-h", "-help", "--help", "--h":
+		return true
+	}
+	return false
+}
+
 const usage = `usage:
-  fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert CERT.pem -tls-key KEY.pem]
+  fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert CERT.pem -tls-key KEY.pem] [-allow-host NAME]
   fogbench eval [FILE|-]            evaluate a case file (one case or an array) and print the results as JSON
   fogbench backup [-db fogbench.db] FILE   write a consistent copy of the library (safe while serving)
   fogbench restore FILE [-db fogbench.db]  replace the library with a checked backup (stop the server first)
   fogbench report CASE-ID -o FILE.pdf [-db fogbench.db] [-paper a4|letter]   PDF report of a stored case
   fogbench migrate-store -from LIB -to LIB   copy a whole library into an empty one (SQLite file or postgres:// URL)
 
--db takes a SQLite file or a postgres://USER@HOST/DB URL (docs/stores.md).
+-db takes a SQLite file or a postgres://USER@HOST/DB URL (docs/stores.md);
+backup and restore work on SQLite files (a PostgreSQL library is backed up
+with pg_dump). "fogbench COMMAND -h" lists a command's flags.
 `
 
 func serve(args []string, stderr io.Writer) int {
@@ -93,6 +108,8 @@ func serve(args []string, stderr io.Writer) int {
 	tokenFile := fs.String("token-file", "", "file holding the access token (or set FOGBENCH_TOKEN); required for a non-loopback -addr")
 	tlsCert := fs.String("tls-cert", "", "serve HTTPS with this PEM certificate (with -tls-key)")
 	tlsKey := fs.String("tls-key", "", "PEM private key of -tls-cert")
+	var allowHosts hostList
+	fs.Var(&allowHosts, "allow-host", "without a token, also answer to this host name (NAME or NAME:PORT, e.g. a reverse proxy's); repeat or separate with commas")
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
@@ -155,6 +172,7 @@ func serve(args []string, stderr io.Writer) int {
 	app := server.New(st, logger)
 	app.SecureCookies = tlsConfig != nil
 	app.Token = token
+	app.AllowedHosts = allowHosts
 	srv := newHTTPServer(*addr, app.Handler())
 	srv.TLSConfig = tlsConfig
 	ln, err := net.Listen("tcp", *addr)
@@ -414,7 +432,7 @@ func oneLine(err error) string {
 func backupCmd(args []string, stderr io.Writer) int {
 	fs := flag.NewFlagSet("backup", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	dbPath := fs.String("db", "fogbench.db", "SQLite case library")
+	dbPath := fs.String("db", "fogbench.db", "case library to copy: a SQLite file (a postgres:// library is backed up with pg_dump)")
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
@@ -452,7 +470,7 @@ func backupCmd(args []string, stderr io.Writer) int {
 func reportCmd(args []string, stderr io.Writer) int {
 	fs := flag.NewFlagSet("report", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	dbPath := fs.String("db", "fogbench.db", "SQLite case library")
+	dbPath := fs.String("db", "fogbench.db", "case library: a SQLite file or a postgres:// URL")
 	out := fs.String("o", "", "PDF file to write")
 	paper := fs.String("paper", "a4", "paper size: a4 or letter")
 	pos, ok := parseWithPositional(fs, args)
@@ -499,6 +517,23 @@ func reportCmd(args []string, stderr io.Writer) int {
 	return 0
 }
 
+// hostList collects -allow-host names.
+type hostList []string
+
+func (h *hostList) String() string { return strings.Join(*h, ",") }
+
+func (h *hostList) Set(v string) error {
+	for _, n := range strings.Split(v, ",") {
+		if n = strings.TrimSpace(n); n != "" {
+			if err := server.CheckAllowedHost(n); err != nil {
+				return err
+			}
+			*h = append(*h, n)
+		}
+	}
+	return nil
+}
+
 // loadToken reads the access token from -token-file, else from
 // FOGBENCH_TOKEN. Surrounding white space (a trailing newline) is dropped.
 // The token is never printed.
@@ -515,8 +550,10 @@ func loadToken(file, env string) (string, error) {
 		tok = string(data)
 	}
 	tok = strings.TrimSpace(tok)
-	if tok != "" && len(tok) < server.MinTokenLen {
-		return "", fmt.Errorf("the access token is too short: use at least %d characters (for example: head -c 24 /dev/urandom | base64)", server.MinTokenLen)
+	if tok != "" {
+		if err := server.CheckToken(tok); err != nil {
+			return "", err
+		}
 	}
 	return tok, nil
 }
@@ -526,7 +563,7 @@ func loadToken(file, env string) (string, error) {
 func restoreCmd(args []string, stdout, stderr io.Writer) int {
 	fs := flag.NewFlagSet("restore", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	dbPath := fs.String("db", "fogbench.db", "SQLite case library to replace")
+	dbPath := fs.String("db", "fogbench.db", "case library to replace: a SQLite file (a postgres:// library is restored with pg_restore)")
 	pos, ok := parseWithPositional(fs, args)
 	if !ok {
 		return 2

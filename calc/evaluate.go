@@ -5,7 +5,10 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
+	"unicode"
+	"unicode/utf8"
 
 	"fogbench/calc/atomize"
 	"fogbench/calc/evap"
@@ -40,6 +43,61 @@ const (
 	DefaultBins = 40
 )
 
+// MaxNameChars bounds a case name, in characters.
+const MaxNameChars = 200
+
+// CheckName refuses a case name that is empty, longer than MaxNameChars
+// characters, or not one line of printable text: control characters (line
+// breaks, tabs, NUL) and bytes that are not UTF-8 are refused, as for
+// author names, since a name is shown on one line in pages, lists, file
+// names and CSV cells. The name is checked as given (Normalize trims it).
+func CheckName(name string) error {
+	if err := checkNameLength(name); err != nil {
+		return err
+	}
+	return checkNameText(name)
+}
+
+func checkNameLength(name string) error {
+	switch {
+	case strings.TrimSpace(name) == "":
+		return &valid.FieldError{Field: "name", Message: "give the case a name"}
+	case utf8.RuneCountInString(name) > MaxNameChars:
+		return &valid.FieldError{Field: "name", Value: quoteClipped(name), Message: fmt.Sprintf("must be at most %d characters", MaxNameChars)}
+	}
+	return nil
+}
+
+func checkNameText(name string) error {
+	switch {
+	case !utf8.ValidString(name):
+		return &valid.FieldError{Field: "name", Value: quoteClipped(name), Message: "holds bytes that are not UTF-8 text; type the name again or save the file as UTF-8"}
+	case strings.IndexFunc(name, unicode.IsControl) >= 0:
+		return &valid.FieldError{Field: "name", Value: quoteClipped(name), Message: "must be one line of text, without control characters (line breaks, tabs, NUL)"}
+	}
+	return nil
+}
+
+// checkText refuses text fields that are not text: a name with control
+// characters or either of name and notes with bytes that are not UTF-8 or
+// NUL. Validate applies it to what users send; Evaluate does not, so a
+// case stored before these checks still computes.
+func checkText(c Case) error {
+	var errs valid.Errors
+	errs.Add(checkNameText(c.Name))
+	if !utf8.ValidString(c.Notes) || strings.ContainsRune(c.Notes, 0) {
+		errs = append(errs, &valid.FieldError{Field: "notes", Message: "holds bytes that are not text (invalid UTF-8 or NUL); save the notes as UTF-8 text"})
+	}
+	return errs.Err()
+}
+
+func quoteClipped(s string) string {
+	if r := []rune(s); len(r) > 40 {
+		return strconv.Quote(string(r[:40]) + "…")
+	}
+	return strconv.Quote(s)
+}
+
 // setup is a validated case with its liquid, gas and drop-size classes.
 type setup struct {
 	c        Case
@@ -57,8 +115,13 @@ type setup struct {
 // Validate checks a case without evaluating its evaporation: every field
 // error is returned at once as valid.Errors.
 func Validate(c Case) error {
-	_, err := prepare(c)
-	return err
+	c.Normalize()
+	var errs valid.Errors
+	errs.Add(checkText(c))
+	if _, err := prepare(c); err != nil && !errs.Add(err) {
+		return err
+	}
+	return errs.Err()
 }
 
 func prepare(c Case) (*setup, error) {
@@ -73,11 +136,7 @@ func prepare(c Case) (*setup, error) {
 	if c.Format != CaseFormat {
 		add(&valid.FieldError{Field: "format", Value: c.Format, Message: fmt.Sprintf("must be %q", CaseFormat)})
 	}
-	if c.Name == "" {
-		add(&valid.FieldError{Field: "name", Message: "give the case a name"})
-	} else if len(c.Name) > 200 {
-		add(&valid.FieldError{Field: "name", Message: "must be at most 200 characters"})
-	}
+	add(checkNameLength(c.Name))
 	if len(c.Notes) > MaxNotesBytes {
 		add(&valid.FieldError{Field: "notes", Value: fmt.Sprint(len(c.Notes)), Message: fmt.Sprintf("must be at most %d bytes", MaxNotesBytes)})
 	}
@@ -102,8 +161,11 @@ func prepare(c Case) (*setup, error) {
 		if c.InjectionTemperatureK == nil {
 			add(&valid.FieldError{Field: "injection_temperature_k", Message: `is needed with "heating":"transient"`})
 		} else if l != nil {
-			_, err := l.Check(*c.InjectionTemperatureK)
-			add(err)
+			// The liquid's check speaks of liquid_temperature_k; this is
+			// the other field.
+			if _, err := l.Check(*c.InjectionTemperatureK); err != nil {
+				add(renameField(err, "injection_temperature_k"))
+			}
 		}
 	default:
 		add(&valid.FieldError{Field: "heating", Value: c.Heating, Message: `must be "steady" or "transient"`})

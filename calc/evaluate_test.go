@@ -23,8 +23,9 @@ func waterCase() Case {
 // The foundation's checks through the whole evaluation, water at 25 °C.
 // Sources: IAPWS R1-76(2014) surface tension 71.97 mN/m at 25 °C (Table 1,
 // read in python3-iapws); IAPWS-IF97 eq. 30 p_s(298.15 K) = 3169.747 Pa and
-// the Laplace and Kelvin values of REFERENCE-DATA §3, computed there from the
-// IAPWS σ = 0.0719722 N/m and ρ = 997.047013 kg/m³ (SR6-08 Table 8).
+// the Laplace (2σ/r) and Kelvin (ln S = 2σV_m/(rRT)) values computed by
+// independent arithmetic from the IAPWS σ = 0.0719722 N/m and
+// ρ = 997.047013 kg/m³ (SR6-08 Table 8).
 func TestEvaluateWaterAgainstIAPWS(t *testing.T) {
 	res, err := Evaluate(waterCase())
 	if err != nil {
@@ -85,15 +86,15 @@ func TestEvaluateWaterAgainstIAPWS(t *testing.T) {
 		}
 	}
 	// The Kelvin ratio at r = 1 nm, as the foundation issue asks, from the
-	// same Kelvin length: exp(1.049182) = 2.855315 (REFERENCE-DATA §3).
+	// same Kelvin length: exp(1.049182) = 2.855315 (independent arithmetic).
 	if got := math.Exp(lk / 1e-9); !scalar.EqualWithinAbsOrRel(got, 2.855315, 0, 1e-4) {
 		t.Errorf("Kelvin ratio at 1 nm: %g", got)
 	}
 }
 
-// At the isothermal 25 °C state REFERENCE-DATA §3 computes the enhancement of a
-// 10 nm-radius drop as E = ln(1 + B_M(r))/ln(1 + B_M(∞)) = 1.113342 with fixed
-// film properties; the full evaluation re-evaluates the film at each surface
+// At the isothermal 25 °C state, independent arithmetic gives the enhancement
+// of a 10 nm-radius drop as E = ln(1 + B_M(r))/ln(1 + B_M(∞)) = 1.113342
+// with fixed film properties; the full evaluation re-evaluates the film at each surface
 // mass fraction, so the tolerance is looser.
 func TestEvaluateEnhancementTenNanometres(t *testing.T) {
 	c := waterCase()
@@ -116,8 +117,8 @@ func TestEvaluateEnhancementTenNanometres(t *testing.T) {
 
 // A large drop's steady temperature in dry air at 25 °C lies near the
 // psychrometric wet-bulb temperature, 8.271 °C by the ASHRAE Handbook —
-// Fundamentals (2017) ch. 1 eqs. 33/35 (REFERENCE-DATA §6.6, computed). With
-// a real Lewis number the drop runs 1–1.5 K colder, so ±2 K.
+// Fundamentals (2017) ch. 1 eqs. 33/35 (computed from them by independent
+// arithmetic). With a real Lewis number the drop runs 1–1.5 K colder, so ±2 K.
 func TestEvaluateSteadyTemperatureNearWetBulb(t *testing.T) {
 	c := waterCase()
 	c.LiquidTemperatureK = nil
@@ -132,8 +133,8 @@ func TestEvaluateSteadyTemperatureNearWetBulb(t *testing.T) {
 }
 
 // Binned D32 of a Rosin–Rammler spray converges to the closed form
-// X/Γ(1 − 1/q) (Lefebvre & McDonell 2017, from memory; REFERENCE-DATA §4.2:
-// X = 100 µm, q = 2.5 gives 67.1505 µm) as the classes are refined.
+// X/Γ(1 − 1/q) (Lefebvre & McDonell 2017, from memory; by independent
+// arithmetic X = 100 µm, q = 2.5 gives 67.1505 µm) as the classes are refined.
 func TestEvaluateRosinRammlerD32Converges(t *testing.T) {
 	c := waterCase()
 	c.Distribution = Distribution{Model: "rosin-rammler", XM: 100e-6, Q: 2.5, DMinM: 1e-9, DMaxM: 2e-3}
@@ -245,7 +246,13 @@ func TestDecodeReportsFields(t *testing.T) {
 		{`{"name":"x","gas":{"pressure_pa":"high"}}`, "gas.pressure_pa"},
 		{`{"name":`, "file"},
 		{``, "file"},
-		{`[{"name":"a"},{"name":"b","extra":1}]`, "extra"},
+		{`[{"name":"a"},{"name":"b","extra":1}]`, "[1].extra"},
+		{`{"name":"x","gas":{"foo":1}}`, "gas.foo"},
+		{`[{"name":"a"},{"name":"b","gas":{"pressure_pa":[]}}]`, "[1].gas.pressure_pa"},
+		{`{"name":"x","distribution":{"edges_m":[1e-6,"2"]}}`, "distribution.edges_m[1]"},
+		{"{\"name\":\"a\xffb\"}", "name"},
+		{`[]`, "file"},
+		{` [ ] `, "file"},
 	}
 	for _, c := range cases {
 		_, err := Decode(strings.NewReader(c.in))

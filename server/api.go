@@ -30,7 +30,12 @@ func (s *Server) handleAPIEvaluate(w http.ResponseWriter, r *http.Request) {
 	for i, c := range cases {
 		res, err := calc.EvaluateContext(r.Context(), c)
 		if err != nil {
-			if isArray {
+			switch {
+			case isArray && len(calc.FieldErrors(err)) > 0:
+				// The list index names the case, as for a decoding error:
+				// "[1].gas.pressure_pa".
+				err = valid.Within(fmt.Sprintf("[%d]", i), err)
+			case isArray:
 				err = fmt.Errorf("case %d: %w", i+1, err)
 			}
 			s.apiError(w, r, err)
@@ -185,27 +190,30 @@ func (s *Server) handleAPICaseUpdate(w http.ResponseWriter, r *http.Request) {
 		Revision int             `json:"revision"`
 		Case     json.RawMessage `json:"case"`
 	}
-	dec := json.NewDecoder(r.Body)
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(&body); err != nil {
-		if isTooLarge(err) {
-			s.apiError(w, r, err) // 413 with the limit, not a JSON complaint
-			return
-		}
-		s.apiError(w, r, &valid.FieldError{Field: "file", Message: "expected {\"revision\":N,\"case\":{…}}: " + err.Error()})
+	data, err := io.ReadAll(r.Body)
+	if err != nil {
+		s.apiError(w, r, err) // 413 with the limit, not a JSON complaint
+		return
+	}
+	if err := valid.DecodeJSON(data, &body, "request"); err != nil {
+		s.apiError(w, r, err)
 		return
 	}
 	if body.Revision <= 0 {
 		s.apiError(w, r, &valid.FieldError{Field: "revision", Message: "give the revision your change is based on"})
 		return
 	}
-	c, err := calc.DecodeOne(body.Case)
+	if len(body.Case) == 0 || string(body.Case) == "null" {
+		s.apiError(w, r, &valid.FieldError{Field: "case", Message: `give the case: {"revision":N,"case":{…}}`})
+		return
+	}
+	c, err := calc.DecodeAt(body.Case, "case")
 	if err != nil {
 		s.apiError(w, r, err)
 		return
 	}
 	if err := calc.Validate(c); err != nil {
-		s.apiError(w, r, err)
+		s.apiError(w, r, valid.Within("case", err)) // the case's fields sit under "case"
 		return
 	}
 	rec, err := s.Store.UpdateCase(r.Context(), id, body.Revision, c, s.author(r))

@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"io"
 	"math"
 	"net/http"
 	"net/url"
@@ -640,13 +641,12 @@ type atomizeRequest struct {
 // decodeAtomize reads the body and works out the properties.
 func (s *Server) decodeAtomize(r *http.Request) (atomizeRequest, atomize.Properties, []string, error) {
 	var req atomizeRequest
-	dec := json.NewDecoder(r.Body)
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(&req); err != nil {
-		if isTooLarge(err) {
-			return req, atomize.Properties{}, nil, err // 413 with the limit
-		}
-		return req, atomize.Properties{}, nil, &valid.FieldError{Field: "body", Message: "expected a JSON object (see docs/methods-atomize.md): " + err.Error()}
+	data, err := io.ReadAll(r.Body)
+	if err != nil {
+		return req, atomize.Properties{}, nil, err // 413 with the limit
+	}
+	if err := valid.DecodeJSON(data, &req, "request"); err != nil {
+		return req, atomize.Properties{}, nil, err
 	}
 	if req.Properties != nil {
 		if req.Fluid != "" || req.CustomFluid != nil || req.Gas != nil {
@@ -659,7 +659,6 @@ func (s *Server) decodeAtomize(r *http.Request) (atomizeRequest, atomize.Propert
 		return req, atomize.Properties{}, nil, &valid.FieldError{Field: "fluid", Message: "give a fluid (and gas), or the properties"}
 	}
 	var l *fluid.Liquid
-	var err error
 	if req.CustomFluid == nil {
 		l, _, err = s.liquidByID(r.Context(), req.Fluid)
 		if calc.ErrorCode(err) == calc.NotFound {

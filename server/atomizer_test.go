@@ -252,7 +252,7 @@ func TestAPIAtomize(t *testing.T) {
 	for _, tc := range []struct{ body, field string }{
 		{strings.Replace(body, `"orifice_diameter_m":1e-3`, `"orifice_diameter_m":-1`, 1), "distribution.inputs.orifice_diameter_m"},
 		{strings.Replace(body, `"water"`, `"treacle"`, 1), "fluid"},
-		{strings.Replace(body, `"family"`, `"famliy"`, 1), "body"},
+		{strings.Replace(body, `"family"`, `"famliy"`, 1), "famliy"},
 	} {
 		code, out := post("/api/atomize", tc.body)
 		var fields []map[string]string

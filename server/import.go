@@ -388,6 +388,9 @@ func fitRows(b *sizedist.Binned) []views.FitRow {
 func useFit(vals, us map[string]string, fit sizedist.FitResult, b *sizedist.Binned) {
 	show := func(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
 	vals["model"] = fit.Family
+	// The fit gives the model's own parameters; a D32 left on the form
+	// would size the model instead of them.
+	delete(vals, "d32")
 	p := formParams(fit)
 	for _, fp := range fitParams[fit.Family] {
 		v := p[fp.key]

@@ -155,13 +155,8 @@ func DecodeBundle(r io.Reader) (Bundle, error) {
 		return Bundle{}, &valid.FieldError{Field: "bundle", Message: "the file is empty"}
 	}
 	var b Bundle
-	dec := json.NewDecoder(bytes.NewReader(data))
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(&b); err != nil {
-		return Bundle{}, bundleJSONError(err)
-	}
-	if _, err := dec.Token(); err != io.EOF {
-		return Bundle{}, &valid.FieldError{Field: "bundle", Message: "unexpected data after the bundle"}
+	if err := valid.DecodeJSON(data, &b, "bundle"); err != nil {
+		return Bundle{}, err
 	}
 	if b.Format != BundleFormat {
 		msg := "not a fogbench bundle (expected format " + BundleFormat + ")"
@@ -188,12 +183,12 @@ func DecodeBundle(r io.Reader) (Bundle, error) {
 		if len(bc.Case) == 0 || bc.Case[0] != '{' {
 			return Bundle{}, &valid.FieldError{Field: at + ".case", Message: "missing case object"}
 		}
-		c, err := calc.DecodeOne(bc.Case)
+		c, err := calc.DecodeAt(bc.Case, at+".case")
 		if err != nil {
-			return Bundle{}, fmt.Errorf("%s.case: %w", at, err)
+			return Bundle{}, err
 		}
 		if err := calc.Validate(c); err != nil {
-			return Bundle{}, fmt.Errorf("%s.case (%s): %w", at, clip(c.Name), err)
+			return Bundle{}, fmt.Errorf("case %q: %w", clip(c.Name), valid.Within(at+".case", err))
 		}
 		body, err := encodeCase(c)
 		if err != nil {
@@ -205,23 +200,11 @@ func DecodeBundle(r io.Reader) (Bundle, error) {
 		}
 		c.Normalize()
 		bc.decoded = c
-		bc.Tags = NormalizeTags(bc.Tags)
+		if bc.Tags, err = CheckTags(bc.Tags); err != nil {
+			return Bundle{}, valid.Within(at, err)
+		}
 	}
 	return b, nil
-}
-
-func bundleJSONError(err error) error {
-	var se *json.SyntaxError
-	var te *json.UnmarshalTypeError
-	switch {
-	case errors.Is(err, io.ErrUnexpectedEOF), errors.Is(err, io.EOF):
-		return &valid.FieldError{Field: "bundle", Message: "the file ends too early (truncated)"}
-	case errors.As(err, &se):
-		return &valid.FieldError{Field: "bundle", Message: fmt.Sprintf("malformed JSON at byte %d: %v", se.Offset, se)}
-	case errors.As(err, &te):
-		return &valid.FieldError{Field: te.Field, Value: te.Value, Message: "must be a " + te.Type.String()}
-	}
-	return &valid.FieldError{Field: "bundle", Message: err.Error()}
 }
 
 func isUID(s string) bool {

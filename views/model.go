@@ -50,6 +50,38 @@ type LibraryView struct {
 	Family     string
 	Families   []Option
 	TagOptions []Option
+	// Refused is a row action the server refused (a rename or tags it
+	// cannot take): that row's actions open with what was typed and the
+	// message beside the field.
+	Refused *RowInput
+}
+
+// RowInput is what was typed into one field of a library row's actions.
+type RowInput struct {
+	ID      int64
+	Field   string // "name" or "tags"
+	Value   string
+	Message string
+}
+
+// RowOpen reports whether a row's actions show open (one was refused).
+func (v LibraryView) RowOpen(r CaseRow) bool { return v.Refused != nil && v.Refused.ID == r.ID }
+
+// RowValue is the value a row's field shows: what was typed when it was
+// refused, else stored.
+func (v LibraryView) RowValue(r CaseRow, field, stored string) string {
+	if v.RowOpen(r) && v.Refused.Field == field {
+		return v.Refused.Value
+	}
+	return stored
+}
+
+// RowError is the message beside a row's field, or "".
+func (v LibraryView) RowError(r CaseRow, field string) string {
+	if v.RowOpen(r) && v.Refused.Field == field {
+		return v.Refused.Message
+	}
+	return ""
 }
 
 // CaseRow is one line of the library.
@@ -164,6 +196,10 @@ func (v CaseView) SummaryFigures() []Figure {
 		v          *float64
 	}{{"50 % of mass evaporated", "t50", s.T50S}, {"90 % evaporated", "t90", s.T90S}, {"99 % evaporated", "t99", s.T99S}} {
 		f := Figure{Label: t.label, Symbol: t.sym, Value: "not reached", Hint: "the surroundings hold the vapor back"}
+		if end := v.Case.Evaporation.MaxTimeS; end > 0 {
+			// The case ends the history itself; it may end first.
+			f.Hint = "not by the end of the history the case sets, " + v.Display.Quantity(units.Time, end, 4)
+		}
 		if v.Result.Superheat != nil {
 			f.Value, f.Hint = "not computed", "a superheated liquid flashes; the evaporation model does not apply"
 		}

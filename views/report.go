@@ -217,12 +217,15 @@ func (v ReportView) Methods() []Method {
 			Use:       "evaporation of drops comparable to the mean free path; Kn and regime per class",
 			Reference: "Fuchs & Sutugin (1971); Seinfeld & Pandis eq. 12.43"})
 	}
-	switch {
-	case c.Heating == "transient":
-		out = append(out, Method{ID: "temperature", Name: "Transient drop heating",
+	if c.Heating == "transient" {
+		out = append(out, Method{ID: "heating", Name: "Transient drop heating",
 			Equation:  "dm/dt = −ṁ, m c_p,L dT_s/dt = Q − ṁL, integrated by Dormand–Prince 5(4)",
-			Use:       "drop temperatures in the evaporation history",
+			Use:       "drop temperatures, lifetimes and the evaporation history, from the injection temperature",
 			Reference: "Abramzon & Sirignano (1989) §2 (from memory); Dormand & Prince (1980); docs/methods-evap.md"})
+	}
+	// The per-class table (surface temperature, Kelvin ratio, rate) is at
+	// the fixed or the steady temperature, transient heating or not.
+	switch {
 	case c.LiquidTemperatureK != nil:
 		out = append(out, Method{ID: "temperature", Name: "Fixed drop temperature",
 			Equation:  "T_s = the given liquid temperature for every class",

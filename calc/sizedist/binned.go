@@ -37,8 +37,8 @@ func (b Basis) order() (float64, bool) {
 // drops and of the liquid volume in each class; each sums to 1.
 //
 // Inside a class the number density is taken as constant in D. That single
-// rule fixes the class average of D^p (ASTM E799 class-average rule, as
-// summarised in REFERENCE-DATA 4.1; the clause itself not read), the
+// rule fixes the class average of D^p (ASTM E799-03 (2015) class-average
+// rule, from memory; the clause itself not read), the
 // conversion between number and volume fractions, and the interpolation of
 // quantiles inside a class.
 type Binned struct {
@@ -244,7 +244,7 @@ func quantile(edges, frac []float64, F float64, k float64) float64 {
 // (1951); Dv10, Dv50, Dv90 are volume quantiles and Dn50 the number median
 // (ISO 9276-2 x_10,3, x_50,3, x_90,3, x_50,0). Span = Dv90 − Dv10 in m;
 // RelativeSpan = (Dv90 − Dv10)/Dv50, dimensionless (the "relative span
-// factor" of ASTM E799 per REFERENCE-DATA 4.1, from memory). A mean that is
+// factor" of ASTM E799, from memory). A mean that is
 // undefined for the distribution is 0 and explained in Warnings.
 type Summary struct {
 	D10          float64  `json:"d10_m"`

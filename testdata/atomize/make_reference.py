@@ -1,9 +1,10 @@
 #!/usr/bin/python3
 """Write correlations.csv: atomizer correlations evaluated independently with NumPy.
 
-The forms are those of REFERENCE-DATA §5 (forms from memory, not yet checked
-against the printed source). This script re-evaluates them in NumPy from the
-case-file inputs, including the flow resolution (FN, C_D, geometry) and the
+The forms are those of Lefebvre, Atomization and Sprays (1989) and Lefebvre &
+McDonell (2017, 2nd ed.) and the original papers named per correlation (forms
+from memory, not yet checked against the printed source). This script
+re-evaluates them in NumPy from the case-file inputs, including the flow resolution (FN, C_D, geometry) and the
 unit conversions from the exact unit definitions, so the Go test checks the
 whole Evaluate path against an implementation that shares no code with it.
 It tests code against formula, not formula against nature.
@@ -164,7 +165,7 @@ def effervescent(props, inputs):
 
 
 def main():
-    # The REFERENCE-DATA §5 input sets.
+    # The invented check input sets (PS1 kerosene-like, PO1 water jet, PO2 diesel).
     pressure_swirl(PS1, {"delta_p_pa": 1e6, "mass_flow_kg_s": 0.01, "orifice_diameter_m": 1e-3, "cone_angle_deg": 80.0})
     pressure_swirl(PS1, {"delta_p_pa": 1e6, "mass_flow_kg_s": 0.01, "orifice_diameter_m": 1e-3,
                          "swirl_chamber_diameter_m": 4e-3, "inlet_port_area_m2": 2e-6})
