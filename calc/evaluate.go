@@ -108,6 +108,9 @@ type setup struct {
 	model    sizedist.Model // the parametric model cut into classes; nil for measured classes
 	xInf     float64        // far-field vapor mole fraction
 	warnings []string
+	// criticalTimes are the transient history's times at which each
+	// class's surface reached the mixture critical point (−1: never).
+	criticalTimes []float64
 }
 
 // Validate checks a case without evaluating its evaporation: every field
@@ -180,6 +183,9 @@ func prepare(c Case) (*setup, error) {
 		x, err := ambientVapor(c.Gas, l)
 		add(err)
 		s.xInf = x
+		if err == nil && c.Gas.RelativeHumidity != nil && g != nil {
+			s.xInf = math.Min(x*saturationEnhancement(l, g, c.Gas.PressurePa, c.Gas.TemperatureK), 1-1e-9)
+		}
 	}
 	add(checkEvaporation(c.Evaporation))
 	if l != nil && g != nil && len(errs) == 0 {
@@ -559,12 +565,16 @@ func (s *setup) conditions(curvature bool) *evap.Conditions {
 	if conv == "" {
 		conv = evap.ConvectionRanzMarshall
 	}
-	return &evap.Conditions{
+	c := &evap.Conditions{
 		Liquid: s.liquid, Gas: filmAdapter{fluid.NewFilmCache(s.liquid, s.gas)}, GasMolarMass: s.gas.MolarMass(),
 		Pressure: s.c.Gas.PressurePa, GasTemperature: s.c.Gas.TemperatureK, VaporMoleFraction: s.xInf,
 		RelativeVelocity: s.c.Gas.RelativeVelocityMS, Curvature: curvature, Transition: !e.NoTransition,
 		Convection: conv, AccommodationCoefficient: e.AccommodationCoef,
 	}
+	if eq := newSurfaceEquilibrium(s.liquid, s.gas, s.c.Gas.PressurePa); eq != nil {
+		c.Equilibrium = eq
+	}
+	return c
 }
 
 // evaluate computes a case: classes, per-class curvature and evaporation,
@@ -624,6 +634,7 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 			LaplacePa: st.LaplacePressure, VaporPressurePa: st.VaporPressure, KelvinRatio: st.KelvinRatio,
 			EvaporationEnhancement: st.Enhancement, SurfaceTemperatureK: st.SurfaceTemperature,
 			Knudsen: st.Knudsen, Regime: st.Regime, EvaporationRateKgS: st.MassRate,
+			Transcritical: st.Transcritical && s.c.Heating != "transient",
 		}
 		res.Bins[i] = bin
 	}
@@ -678,6 +689,7 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 	}
 	markGrowth(res)
 	res.Properties = s.properties(refT)
+	res.Equilibrium = equilibriumBlock(cond, refT)
 	if e := s.c.Evaporation; e.MassFlowKgS > 0 {
 		nd, err := sizedist.DropsPerSecond(b, e.MassFlowKgS, s.liquid.Density(refT))
 		if err == nil && !math.IsInf(nd, 0) && !math.IsNaN(nd) {
@@ -688,6 +700,8 @@ func evaluate(ctx context.Context, c Case) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
+	s.markTranscritical(cond, res)
+	s.equilibriumWarnings(cond, res)
 	lo, hi := math.Inf(1), math.Inf(-1)
 	for _, b := range res.Bins {
 		lo, hi = math.Min(lo, b.SurfaceTemperatureK), math.Max(hi, b.SurfaceTemperatureK)
@@ -801,6 +815,9 @@ func canceled(err error) error {
 func (s *setup) evaluationError(err error, d float64) error {
 	if errors.Is(err, context.Canceled) || errors.Is(err, context.DeadlineExceeded) {
 		return canceled(err)
+	}
+	if errors.Is(err, evap.ErrTranscritical) {
+		return &Error{Code: Invalid, Message: fmt.Sprintf("The drop surface (drop %.3g µm) is at or past the mixture critical point of the liquid and the gas at this pressure: there is no liquid surface to evaporate from, and the drop mixes with the gas as a dense fluid, which this model does not follow. Lower the liquid temperature.", d*1e6), Err: err}
 	}
 	if errors.Is(err, evap.ErrBoiling) {
 		return &Error{Code: Invalid, Message: fmt.Sprintf("The liquid boils at these conditions (drop %.3g µm): its vapor pressure reaches the gas pressure, so the quasi-steady evaporation model does not apply. Lower the liquid temperature or raise the pressure.", d*1e6), Err: err}
@@ -923,6 +940,7 @@ func (s *setup) history(ctx context.Context, spray *evap.Spray, d []float64, res
 	}
 	res.Warnings = append(res.Warnings, h.Warnings...)
 	res.History = &History{TS: h.T, EvaporatedMassFraction: h.EvaporatedMassFraction, D32M: h.D32, Dv50M: h.Dv50}
+	s.criticalTimes = h.CriticalTime
 	if u := s.c.Evaporation.SprayVelocityMS; u > 0 {
 		res.History.XM = h.Distance(u)
 	}

@@ -7,12 +7,16 @@ import "fogbench/calc/atomize"
 // warning. JSON names carry SI units; quantities that do not exist for a case
 // (a drop that never evaporates) are null, never NaN or Inf.
 type Result struct {
-	Summary    Summary         `json:"summary"`
-	Bins       []BinResult     `json:"bins"`
-	Curvature  Curvature       `json:"curvature"`
-	Properties Properties      `json:"properties"`
-	History    *History        `json:"history,omitempty"`
-	Atomizer   *atomize.Result `json:"atomizer,omitempty"`
+	Summary    Summary     `json:"summary"`
+	Bins       []BinResult `json:"bins"`
+	Curvature  Curvature   `json:"curvature"`
+	Properties Properties  `json:"properties"`
+	// Equilibrium is the flat-surface equilibrium at the gas pressure at
+	// the reference temperature (see calc/equilibrium.go); nil when the
+	// gas has no equation-of-state constants.
+	Equilibrium *Equilibrium    `json:"equilibrium,omitempty"`
+	History     *History        `json:"history,omitempty"`
+	Atomizer    *atomize.Result `json:"atomizer,omitempty"`
 	// Superheat is set when the liquid leaves the nozzle at or above its
 	// boiling point at the gas pressure; the evaporation fields are then
 	// not computed (see calc/superheat.go).
@@ -64,6 +68,39 @@ type BinResult struct {
 	// Grows is set only in supersaturated surroundings: whether the class's
 	// radius exceeds Curvature.KelvinCriticalRadiusM, so its drops grow.
 	Grows *bool `json:"grows,omitempty"`
+	// Transcritical is set when the class's surface reaches the mixture
+	// critical point of liquid and gas: its evaporation model stops there
+	// (present only when true).
+	Transcritical bool `json:"transcritical,omitempty"`
+}
+
+// Equilibrium is the vapor's equilibrium over a flat surface of the liquid
+// at the gas pressure and the reference surface temperature:
+// y_v φ_v p = x_L p_sat φ_sat exp(v_L (p − p_sat)/(R T)). Each class's
+// vapor_pressure_pa is FlatVaporPressurePa times its Kelvin ratio at its
+// own surface temperature.
+type Equilibrium struct {
+	TemperatureK float64 `json:"temperature_k"`
+	// FlatVaporPressurePa is the equilibrium partial pressure y_v p, Pa.
+	FlatVaporPressurePa float64 `json:"flat_vapor_pressure_pa"`
+	// PoyntingFactor is exp(v_L (p − p_sat)/(R T)).
+	PoyntingFactor float64 `json:"poynting_factor"`
+	// FugacityFactor is φ_sat/φ_v.
+	FugacityFactor float64 `json:"fugacity_factor"`
+	// EnhancementFactor is FlatVaporPressurePa / p_sat.
+	EnhancementFactor float64 `json:"enhancement_factor"`
+	// DissolvedGasMoleFraction is 1 − x_L.
+	DissolvedGasMoleFraction float64 `json:"dissolved_gas_mole_fraction"`
+	// LatentHeatJKg is the heat of vaporisation at the surface state at the
+	// gas pressure (the liquid's L(T) corrected by Peng–Robinson departure
+	// functions, or for water by the virial guideline's and the liquid's
+	// enthalpy change with pressure), J/kg.
+	LatentHeatJKg float64 `json:"latent_heat_j_kg"`
+	// MixtureCriticalTemperatureK is the surface temperature at which the
+	// surface reaches the mixture critical point at the gas pressure
+	// (only at or above the liquid's critical pressure).
+	MixtureCriticalTemperatureK *float64 `json:"mixture_critical_temperature_k,omitempty"`
+	Method                      string   `json:"method"`
 }
 
 // Curvature summarises where the Kelvin effect matters for this case.

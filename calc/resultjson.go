@@ -55,6 +55,9 @@ func (r *Result) jsonSizeHint() int {
 		return 4
 	}
 	n := 4096 + 400*len(r.Bins) + 250*len(r.Properties.Sources)
+	if e := r.Equilibrium; e != nil {
+		n += 300 + len(e.Method)
+	}
 	if h := r.History; h != nil {
 		n += 24 * (len(h.TS) + len(h.XM) + len(h.EvaporatedMassFraction) + len(h.D32M) + len(h.Dv50M))
 	}
@@ -214,6 +217,10 @@ func (w *jsonWriter) result(r *Result) {
 	w.curvature(&r.Curvature)
 	w.raw(`,"properties":`)
 	w.properties(&r.Properties)
+	if e := r.Equilibrium; e != nil {
+		w.raw(`,"equilibrium":`)
+		w.equilibrium(e)
+	}
 	if h := r.History; h != nil {
 		w.raw(`,"history":`)
 		w.history(h)
@@ -301,6 +308,33 @@ func (w *jsonWriter) bin(b *BinResult) {
 			w.raw(`,"grows":false`)
 		}
 	}
+	if b.Transcritical {
+		w.raw(`,"transcritical":true`)
+	}
+	w.b = append(w.b, '}')
+}
+
+func (w *jsonWriter) equilibrium(e *Equilibrium) {
+	w.raw(`{"temperature_k":`)
+	w.float(e.TemperatureK)
+	w.raw(`,"flat_vapor_pressure_pa":`)
+	w.float(e.FlatVaporPressurePa)
+	w.raw(`,"poynting_factor":`)
+	w.float(e.PoyntingFactor)
+	w.raw(`,"fugacity_factor":`)
+	w.float(e.FugacityFactor)
+	w.raw(`,"enhancement_factor":`)
+	w.float(e.EnhancementFactor)
+	w.raw(`,"dissolved_gas_mole_fraction":`)
+	w.float(e.DissolvedGasMoleFraction)
+	w.raw(`,"latent_heat_j_kg":`)
+	w.float(e.LatentHeatJKg)
+	if e.MixtureCriticalTemperatureK != nil {
+		w.raw(`,"mixture_critical_temperature_k":`)
+		w.float(*e.MixtureCriticalTemperatureK)
+	}
+	w.raw(`,"method":`)
+	w.str(e.Method)
 	w.b = append(w.b, '}')
 }
 

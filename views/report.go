@@ -127,6 +127,19 @@ type Method struct {
 	Reference string
 }
 
+// equilibriumMethod is the flat-surface equilibrium at the gas pressure:
+// its equation, and the equation of state and sources the result names.
+func equilibriumMethod(r *calc.Result) Method {
+	m := Method{ID: "equilibrium", Name: "Surface equilibrium at the gas pressure (Poynting factor, fugacity coefficients, dissolved gas)",
+		Equation:  "y_v φ_v p = x_L p_sat φ_sat exp[v_L (p − p_sat)/(R T)]; p_flat = y_v p; the surface stops at the mixture critical point of liquid and gas",
+		Use:       "flat-surface vapor pressure of every class, gas dissolved in the liquid, latent heat at the surface, mixture critical limit",
+		Reference: "docs/methods-evap.md (Equilibrium at the gas pressure)"}
+	if r != nil && r.Equilibrium != nil {
+		m.Reference = r.Equilibrium.Method + "; docs/methods-evap.md"
+	}
+	return m
+}
+
 // Anchor is the fragment a report links to.
 func (m Method) Anchor() string { return "method-" + m.ID }
 
@@ -185,9 +198,10 @@ func (v ReportView) Methods() []Method {
 			Use:       "Laplace pressure per class; the diameter where it equals 1 atm",
 			Reference: "Young–Laplace; docs/methods-evap.md (Curvature)"},
 		Method{ID: "kelvin", Name: "Kelvin equation (Poynting integral, incompressible liquid)",
-			Equation:  "p(r)/p_sat = exp[2σ v_L/(r R T)]; Kelvin length ℓ_K = 2σ v_L/(R T)",
+			Equation:  "p(r)/p_flat = exp[2σ v_L/(r R T)], p_flat the flat-surface equilibrium at the gas pressure; Kelvin length ℓ_K = 2σ v_L/(R T)",
 			Use:       "vapor pressure raise per class and the curvature thresholds",
 			Reference: "Thomson (1871); Seinfeld & Pandis, Atmospheric Chemistry and Physics, eq. 10.86 (equation number from memory); R from CODATA 2018"},
+		equilibriumMethod(v.Result),
 		Method{ID: "evaporation", Name: "Quasi-steady drop evaporation with Spalding transfer numbers",
 			Equation:  "ṁ = π d ρ_g D Sh ln(1 + B_M), B_M = (Y_s − Y_∞)/(1 − Y_s); heat through B_T = (1 + B_M)^φ − 1",
 			Use:       "evaporation rate, enhancement and lifetime per class",
@@ -326,8 +340,8 @@ func (v CaseView) BinColumns() []BinColumn {
 		{"Number, %", "sizes"},
 		{"Volume, %", "sizes"},
 		{"Laplace 2σ/r, " + d.Unit(units.Pressure), "laplace"},
-		{"Vapor pressure, " + d.Unit(units.Pressure), "kelvin"},
-		{"Kelvin ratio p(r)/p_sat", "kelvin"},
+		{"Vapor pressure, " + d.Unit(units.Pressure), "equilibrium"},
+		{"Kelvin ratio p(r)/p_flat", "kelvin"},
 		{"Evaporation enhancement", "evaporation"},
 		{"Lifetime, " + d.Unit(units.Time), "lifetime"},
 		{"Surface T, " + d.Unit(units.Temperature), "temperature"},

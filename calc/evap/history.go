@@ -43,7 +43,11 @@ type History struct {
 	// T50, T90, T99 are the times at which 50, 90 and 99 % of the mass has
 	// evaporated, s; +Inf (with a warning) when never reached.
 	T50, T90, T99 float64
-	Warnings      []string
+	// CriticalTime is, per bin, the time (s) at which its surface reached
+	// the mixture critical point on its transient heating path, or −1;
+	// nil without transient heating.
+	CriticalTime []float64
+	Warnings     []string
 	// SurfaceTemperatureMin and Max bound the surface temperatures the
 	// transient heating paths passed through (from the injection
 	// temperature to where each class joined its steady temperature), K;
@@ -137,7 +141,7 @@ func (c *Conditions) NewSpray(diameters, volumeFractions []float64, opts History
 	if err := valid.NonNegative("history.max_time_s", opts.MaxTime); err != nil {
 		return nil, err
 	}
-	tb, _, err := c.boilingTemperature()
+	tb, _, err := c.upperTemperature()
 	if err != nil {
 		return nil, err
 	}
@@ -210,13 +214,16 @@ func (s *Spray) HistoryContext(ctx context.Context, maxTime float64) (History, e
 			return h, err
 		}
 		h.SurfaceTemperatureMin, h.SurfaceTemperatureMax = sp.transientTemperatureRange()
+		h.CriticalTime = sp.criticalTimes()
 	}
 	// Every drop's path to zero size passes radii below 5 nm, and for a
 	// volatile liquid radii where S·p_sat exceeds the gas pressure; those
 	// last nanometres take a negligible share of the lifetime, so the flags
 	// they raise say nothing about the spray. The per-class states report
 	// them where they matter.
-	h.Warnings = warningText(sp.rate.flags &^ (warnKelvinSmall | warnSurfaceCapped))
+	// A surface held at the mixture critical point is reported per class
+	// (DropState.Transcritical, History.CriticalTime), not here.
+	h.Warnings = warningText(sp.rate.flags &^ (warnKelvinSmall | warnSurfaceCapped | warnTranscritical))
 	if sp.heldWeight > 0 {
 		h.Warnings = append(h.Warnings, fmt.Sprintf("%.3g %% of the spray volume is in drops that do not evaporate (at or above the Kelvin equilibrium size, or not within the time considered); without transient heating they are held at their initial size (growth is not modelled)", 100*sp.heldWeight))
 	}

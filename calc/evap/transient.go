@@ -222,14 +222,21 @@ func (sp *sprayPaths) integrateBin(i int, tInj, horizon float64, rec *[]stepReco
 	joinAt := 0 // points of the path up to the join, once joined
 	f := func(_ float64, y, dy []float64) error {
 		s := math.Max(y[0], 1e-30)
-		d := p.diameter(s, y[1])
-		e, err := c.evaluate(d, y[1], c.Curvature)
+		// A surface that reaches the mixture critical point is held
+		// there (see holdAtCritical).
+		T, held := c.holdAtCritical(y[1])
+		d := p.diameter(s, T)
+		e, err := c.evaluate(d, T, c.Curvature)
 		if err != nil {
 			return err
 		}
 		m := p.m0 * s * math.Sqrt(s)
 		dy[0] = -(2.0 / 3) * e.mdot / (p.m0 * math.Sqrt(s))
-		dy[1] = e.heatToLiquid / (m * c.Liquid.HeatCapacity(y[1]))
+		dy[1] = e.heatToLiquid / (m * c.Liquid.HeatCapacity(T))
+		if held {
+			dy[1] = 0
+			e.flags |= warnTranscritical
+		}
 		last = e
 		if joinAt > 0 {
 			// The extension past the join is no part of this bin's path.
