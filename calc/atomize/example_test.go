@@ -39,8 +39,8 @@ func ExampleEvaluate() {
 	// lefebvre-1987        52.6 µm
 	// radcliffe-1955       74.4 µm
 	// jasuja-1979          57.9 µm
-	// wang-lefebvre-1987   46.6 µm
-	// film 234 µm
+	// wang-lefebvre-1987   38.1 µm
+	// film 173 µm
 }
 
 // The pressure that brings the same nozzle's SMD down to 40 µm at fixed

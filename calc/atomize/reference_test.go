@@ -49,7 +49,7 @@ func TestPressureSwirlReference(t *testing.T) {
 		{"radcliffe-1955", radcliffeSMD(sigma, nuL, mdot, dp) * 1e6, 74.352},
 		{"jasuja-1979", jasujaSMD(sigma, nuL, mdot, dp) * 1e6, 57.883},
 		{"lefebvre-1987", lefebvre1987SMD(sigma, muL, mdot, dp, rhoA) * 1e6, 52.566},
-		{"wang-lefebvre-1987 (t from Rizk-Lefebvre, θ = 40°)", wangLefebvreSMD(sigma, muL, rhoL, rhoA, dp, t0, 40*math.Pi/180) * 1e6, 46.602},
+		{"wang-lefebvre-1987 (t from Rizk-Lefebvre 3.66, θ = 40°)", wangLefebvreSMD(sigma, muL, rhoL, rhoA, dp, t0, 40*math.Pi/180) * 1e6, 46.602},
 		{"film Rizk-Lefebvre 1985", t0 * 1e6, 233.853},
 		{"film Suyari-Lefebvre 1986", suyariLefebvreFilmThickness(d0, flowNumberSI(mdot, rhoL, dp), muL, rhoL, dp) * 1e6, 172.515},
 	}
@@ -117,7 +117,9 @@ func TestPlainOrificeReference(t *testing.T) {
 	}{
 		{"merrington-richardson-1947 PO1", merringtonRichardsonSMD(0.5e-3, 1e-6, 30) * 1e6, 114.977},
 		{"harmon-1955 PO1", harmonSMD(0.5e-3, 1e-3, 1000, 0.072, 30, 1.8e-5, 1.2) * 1e6, 107.675},
-		{"elkotb-1982 PO2", elkotbSMD(3e-6, 0.028, 830, 20, 50e6) * 1e6, 19.488},
+		// 6156 ν^0.385 (σρ)^0.737 ρ_A^0.06 (500 bar)^−0.54 µm, the form in
+		// bar and µm of open code citing Elkotb (1982); hand arithmetic.
+		{"elkotb-1982 PO2", elkotbSMD(3e-6, 0.028, 830, 20, 50e6) * 1e6, 19.522},
 	}
 	for _, c := range cases {
 		if !closeToPrinted(c.got, c.wantUm, halfULPum) {
@@ -216,10 +218,10 @@ func TestEvaluateAtCheckPoints(t *testing.T) {
 		{"pressure-swirl", "radcliffe-1955", ps1, map[string]float64{"delta_p_pa": 1e6, "mass_flow_kg_s": 0.01, "orifice_diameter_m": 1e-3}, 74.352},
 		{"pressure-swirl", "jasuja-1979", ps1, map[string]float64{"delta_p_pa": 1e6, "mass_flow_kg_s": 0.01, "orifice_diameter_m": 1e-3}, 57.883},
 		{"pressure-swirl", "lefebvre-1987", ps1, map[string]float64{"delta_p_pa": 1e6, "flow_number_m2": 3.580574370197164e-7, "orifice_diameter_m": 1e-3}, 52.566},
-		{"pressure-swirl", "wang-lefebvre-1987", ps1, map[string]float64{"delta_p_pa": 1e6, "mass_flow_kg_s": 0.01, "orifice_diameter_m": 1e-3, "cone_angle_deg": 80}, 46.602},
+		{"pressure-swirl", "wang-lefebvre-1987", ps1, map[string]float64{"delta_p_pa": 1e6, "mass_flow_kg_s": 0.01, "orifice_diameter_m": 1e-3, "cone_angle_deg": 80}, 38.055},
 		{"plain-orifice", "merrington-richardson-1947", po1, map[string]float64{"delta_p_pa": 1e6, "mass_flow_kg_s": po1Mass, "orifice_diameter_m": 0.5e-3}, 114.977},
 		{"plain-orifice", "harmon-1955", po1, map[string]float64{"delta_p_pa": 1e6, "mass_flow_kg_s": po1Mass, "orifice_diameter_m": 0.5e-3}, 107.675},
-		{"plain-orifice", "elkotb-1982", po2, map[string]float64{"delta_p_pa": 50e6, "discharge_coefficient": 0.7, "orifice_diameter_m": 0.2e-3}, 19.488},
+		{"plain-orifice", "elkotb-1982", po2, map[string]float64{"delta_p_pa": 50e6, "discharge_coefficient": 0.7, "orifice_diameter_m": 0.2e-3}, 19.522},
 		{"airblast", "rizk-lefebvre-1980", ps1, map[string]float64{"air_velocity_m_s": 100, "alr": 3, "prefilmer_diameter_m": 0.02}, 26.567},
 		{"airblast", "elshanawany-lefebvre-1980", ps1, map[string]float64{"air_velocity_m_s": 100, "alr": 3, "prefilmer_diameter_m": 0.02, "hydraulic_diameter_m": 0.02}, 76.251},
 		{"airblast", "lorenzetto-lefebvre-1977", ps1, map[string]float64{"air_velocity_m_s": 100, "alr": 3, "mass_flow_kg_s": 0.01, "orifice_diameter_m": 1e-3}, 85.302},
