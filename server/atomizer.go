@@ -560,7 +560,7 @@ func (s *Server) benchSweep(b *benchState, v *views.BenchView) {
 	if len(sw.Series) > 0 {
 		if svg, err := smd.SVG(); err == nil {
 			v.Sweep = &views.Plot{ID: "sweep", Title: smd.Title, SVG: svg,
-				Caption: "Each correlation's predicted diameter: solid inside every validity range it states, dashed outside it; grey dotted lines mark the range limits of the swept variable. Forms from memory, not checked against the printed sources."}
+				Caption: "Each correlation's predicted diameter: solid inside every validity range it states, dashed outside it; grey dotted lines mark the range limits of the swept variable. Whether each form was checked is listed under the family's correlations."}
 		} else {
 			s.Logger.Warn("sweep plot", "err", err)
 		}

@@ -161,6 +161,7 @@ var summaryCSVHeader = []string{
 	"reference_temperature (K)", "warnings",
 	"drop_temperature_model", "liquid_temperature (K)", "injection_temperature (K)",
 	"convection", "transition_correction", "accommodation_coefficient (-)",
+	"atomizer_correlation", "atomizer_source", "atomizer_status",
 }
 
 // modelCSVCells are the model columns of a summary row: how the drop
@@ -205,7 +206,20 @@ func summaryCSVRow(rec store.CaseRecord, res *calc.Result) []string {
 		csvNum(c.KelvinLengthM * 1e9), csvNum(c.LaplaceOneAtmDM * 1e6), csvOpt(c.Enhancement1PctDM, 1e6), csvOpt(c.Enhancement10PctDM, 1e6), crit,
 		csvNum(c.ReferenceTemperatureK), strconv.Itoa(len(res.Warnings)),
 	}
-	return append(row, modelCSVCells(rec.Case)...)
+	row = append(row, modelCSVCells(rec.Case)...)
+	return append(row, atomizerCSVCells(res)...)
+}
+
+// atomizerCSVCells are the correlation that sized the drops, its published
+// citation and its status from the correlation's provenance record; empty
+// when the drop sizes do not come from a nozzle.
+func atomizerCSVCells(res *calc.Result) []string {
+	a := res.Atomizer
+	if a == nil || len(a.SMD) == 0 {
+		return []string{"", "", ""}
+	}
+	e := a.SMD[0] // the chosen correlation comes first
+	return []string{csvText(e.Correlation), csvText(e.Provenance.Citation.String()), csvText(e.Provenance.Status)}
 }
 
 // evaluatedCase loads and computes the case of the route; a case that
