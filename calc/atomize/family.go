@@ -565,8 +565,10 @@ func ultrasonicFamily() *family {
 			FittedUnits: "dimensionally consistent",
 			Validity:    "capillary-wave atomization at low flow; frequency bound " + rangeCommon,
 			Ranges:      []Range{{Quantity: inFrequency, Min: 1e4, Max: 3e6, Source: rangeCommon}},
-			Provenance: unconfirmed(Citation{Authors: "Lang, R. J.", Title: "Ultrasonic atomization of liquids", Journal: "J. Acoust. Soc. Am.", Year: 1962, Volume: "34(1)", Pages: "6–8"},
-				"the citation was read; the form was not compared with an independent text here"),
+			Provenance: checkedAgainst(Citation{Authors: "Lang, R. J.", Title: "Ultrasonic atomization of liquids", Journal: "J. Acoust. Soc. Am.", Year: 1962, Volume: "34(1)", Pages: "6–8"},
+				"the paper's abstract (doi:10.1121/1.1909020): the number-median diameter is 0.34 of the capillary wavelength, "+
+					"which Kelvin's equation gives from the exciting frequency",
+				"the abstract does not print the wavelength formula; λ_c = (8π σ/(ρ_L f²))^(1/3) was not checked against the paper"),
 		},
 		smd: func(pt *point) float64 {
 			return langDiameter(pt.p.SurfaceTension, pt.p.LiquidDensity, pt.in[inFrequency])
