@@ -356,6 +356,9 @@ func (s *Server) benchCompute(b *benchState, v *views.BenchView) {
 	if body, err := json.MarshalIndent(atomizeRequest{Family: f.ID, Correlation: b.corr, Inputs: b.inputs, Properties: &b.props}, "", "  "); err == nil {
 		v.APIJSON = string(body)
 	}
+	if len(f.Correlations) == 0 {
+		return // flow only: no drop size to size for, sample or sweep
+	}
 
 	if unknown := b.vals["solve_unknown"]; unknown != "" {
 		var t atomize.Target
