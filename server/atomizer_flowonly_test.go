@@ -18,7 +18,7 @@ func TestEffervescentBenchFlowOnly(t *testing.T) {
 		"at.effervescent.orifice_diameter_m": {"1"}, "at.effervescent.orifice_diameter_m_unit": {"mm"},
 		"at.effervescent.mass_flow_kg_s": {"10"}, "at.effervescent.mass_flow_kg_s_unit": {"g/s"},
 		"at.effervescent.alr": {"0.05"},
-		"sweep_var": {"delta_p_pa"}, "mc_cv": {"5"}, "mc_n": {"100"}, "mc_seed": {"1"},
+		"sweep_var":           {"delta_p_pa"}, "mc_cv": {"5"}, "mc_n": {"100"}, "mc_seed": {"1"},
 		"solve_unknown": {"delta_p_pa"}, "target_flow": {"20"}, "target_flow_unit": {"g/s"},
 	}
 	doc, code := getDoc(t, client(t), ts.URL+"/atomizers/effervescent?"+q.Encode())
