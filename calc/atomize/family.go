@@ -531,8 +531,12 @@ func rotaryFamily() *family {
 			Validity: "direct-drop regime only (low flow); other authors quote K from about 2.7 to 4. " +
 				"The flow limit of the regime is not recalled, so it is not checked; speed bound " + rangeCommon,
 			Ranges: []Range{{Quantity: inSpeed, Min: 500, Max: 50000, Source: rangeCommon}},
-			Provenance: unconfirmed(Citation{Authors: "Walton, W. H. & Prewett, W. C.", Journal: "Proc. Phys. Soc. B", Year: 1949, Volume: "62", Pages: "341"},
-				"other authors quote the constant K from about 2.7 to 4"),
+			Provenance: checkedAgainst(Citation{Authors: "Walton, W. H. & Prewett, W. C.",
+				Title:   "The production of sprays and mists of uniform drop size by means of spinning disc type sprayers",
+				Journal: "Proc. Phys. Soc. B", Year: 1949, Volume: "62", Pages: "341"},
+				"the paper's abstract (discovery.researcher.life record): d = 3.8 (T/(D ρ))^½/ω, with T the surface tension, "+
+					"D the disc diameter and ω its angular velocity, for drops from 3 mm down to 15 µm",
+				"the abstract calls the equation approximate; other authors quote the constant from about 2.7 to 4"),
 		},
 		smd: func(pt *point) float64 {
 			return waltonPrewettDiameter(pt.p.SurfaceTension, pt.p.LiquidDensity, pt.omega(), pt.in[inDiskD])

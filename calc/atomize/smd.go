@@ -156,8 +156,8 @@ func nukiyamaTanasawaSMD(sigma, muL, rhoL, uR, qRatio float64) float64 {
 //
 //	d = (K/ω) (σ/(ρ_L D))^0.5,   K = 3.8
 //
-// ω in rad/s, D disk diameter (m). Other authors quote K from about 2.7 to 4
-// (form and constant from memory).
+// ω in rad/s, D disk diameter (m). Form and constant as the paper's abstract
+// gives them; other authors quote K from about 2.7 to 4.
 func waltonPrewettDiameter(sigma, rhoL, omega, disk float64) float64 {
 	return 3.8 / omega * math.Sqrt(sigma/(rhoL*disk))
 }
