@@ -7,8 +7,8 @@ import (
 )
 
 // A fictional kerosene burner nozzle: 10 g/s at 10 bar through a 1 mm
-// pressure-swirl orifice. The SMD forms are from memory (REFERENCE-DATA §5),
-// not yet checked against the printed source.
+// pressure-swirl orifice. Each correlation's provenance record says how far
+// its form was checked.
 func ExampleEvaluate() {
 	props := atomize.Properties{
 		LiquidDensity:   780,

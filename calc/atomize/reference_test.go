@@ -11,11 +11,10 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 )
 
-// Every check in this file is hand arithmetic from the formula as recalled
-// (REFERENCE-DATA §5, [computed]), not a published data point. The forms
-// themselves are forms from memory (REFERENCE-DATA §5), not yet checked
-// against the printed source, so these tests show that the code matches the
-// recalled formulas, not that the formulas match the papers.
+// Every check in this file is hand arithmetic from the form as written in
+// docs/methods-atomize.md (the confirmed form where one was read), not a
+// published data point: these tests show that the code matches the forms,
+// not that the forms match the papers (see each correlation's provenance).
 
 // The [computed] values are printed rounded to a few digits, so each table
 // accepts rel 1e-6 or half a unit in the last printed digit (printedHalfULP,
@@ -33,7 +32,7 @@ var (
 )
 
 func TestPressureSwirlReference(t *testing.T) {
-	// Source: REFERENCE-DATA §5.1–5.3, PS1 check values [computed]; hand
+	// Source: hand-computed check values, PS1 check values [computed]; hand
 	// arithmetic from the formula as recalled, not a published data point.
 	const (
 		sigma, muL, rhoL, mdot, dp, rhoA, d0 = 0.0275, 1.3e-3, 780.0, 0.01, 1.0e6, 1.2, 1.0e-3
@@ -80,7 +79,7 @@ func TestPressureSwirlReference(t *testing.T) {
 }
 
 func TestFlowNumberReference(t *testing.T) {
-	// Source: REFERENCE-DATA §5.1, PS1 [computed], tolerance rel 1e-5 as
+	// Source: hand-computed check values, PS1 [computed], tolerance rel 1e-5 as
 	// stated there; hand arithmetic from the exact definitions.
 	const tol = 1e-5
 	fn := flowNumberSI(0.01, 780, 1e6)
@@ -106,7 +105,7 @@ func TestFlowNumberReference(t *testing.T) {
 }
 
 func TestPlainOrificeReference(t *testing.T) {
-	// Source: REFERENCE-DATA §5.4, PO1 and PO2 [computed]; hand arithmetic
+	// Source: hand-computed check values, PO1 and PO2 [computed]; hand arithmetic
 	// from the formula as recalled, not a published data point. Values
 	// printed to 0.001 µm.
 	const halfULPum = 0.0005
@@ -127,14 +126,14 @@ func TestPlainOrificeReference(t *testing.T) {
 		}
 	}
 	// Lichtarowicz et al. high-Re limit, l0/d0 = 4; tolerance abs 1e-4 as
-	// stated in REFERENCE-DATA §5.4.
+	// the value is printed to 4 decimals (0.827 − 0.034 = 0.793)
 	if got := lichtarowiczDischargeCoefficient(4e-3, 1e-3); !scalar.EqualWithinAbs(got, 0.7930, 1e-4) {
 		t.Errorf("Lichtarowicz C_D,max at l0/d0 = 4: got %.5f, want 0.7930", got)
 	}
 }
 
 func TestAirblastReference(t *testing.T) {
-	// Source: REFERENCE-DATA §5.5, AB1 [computed]; hand arithmetic from the
+	// Source: hand-computed check values, AB1 [computed]; hand arithmetic from the
 	// formula as recalled, not a published data point. Values printed to
 	// 0.001 µm.
 	const (
@@ -158,7 +157,7 @@ func TestAirblastReference(t *testing.T) {
 }
 
 func TestNukiyamaTanasawaReference(t *testing.T) {
-	// Source: REFERENCE-DATA §4.5 [computed], tolerance rel 1e-6 as stated
+	// Source: hand-computed check values [computed], tolerance rel 1e-6 as stated
 	// there (value printed to 6 digits, half ULP 5e-5 µm): U_R = 100 m/s,
 	// σ = 72 dyn/cm, ρ_L = 1.0 g/cm³, μ_L = 0.01 P, Q_L/Q_A = 1e-4.
 	const want = 50.5469 // µm
@@ -175,8 +174,8 @@ func TestNukiyamaTanasawaReference(t *testing.T) {
 }
 
 func TestRotaryUltrasonicReference(t *testing.T) {
-	// Source: REFERENCE-DATA §5.6 (Walton-Prewett, water σ = 0.072, ρ_L =
-	// 1000, D = 0.05 m) and §5.7 (Lang, water σ = 0.072, ρ = 1000), [computed];
+	// Source: hand-computed check values (Walton-Prewett, water σ = 0.072, ρ_L =
+	// 1000, D = 0.05 m) and (Lang, water σ = 0.072, ρ = 1000), [computed];
 	// hand arithmetic from the formula as recalled, not a published data
 	// point. Values printed to 0.001 µm.
 	const halfULPum = 0.0005
@@ -203,7 +202,7 @@ func TestRotaryUltrasonicReference(t *testing.T) {
 }
 
 func TestEvaluateAtCheckPoints(t *testing.T) {
-	// Source: REFERENCE-DATA §5 [computed] check values at PS1, PO1, PO2 and
+	// Source: hand-computed check values [computed] check values at PS1, PO1, PO2 and
 	// AB1, reached through Evaluate's input handling; hand arithmetic from
 	// the formula as recalled, not a published data point. Values printed
 	// to 0.001 µm.
@@ -246,7 +245,7 @@ func TestEvaluateAtCheckPoints(t *testing.T) {
 // TestIndependentEvaluation compares Evaluate with an independent NumPy
 // evaluation of the same recalled forms (testdata/atomize/correlations.csv,
 // written by make_reference.py, which names its library versions on the
-// first line) at the REFERENCE-DATA input sets and at seeded random points.
+// first line) at the PS1/PO1/PO2/AB1 input sets and at seeded random points.
 // It is code-vs-formula agreement, not validation against measurements.
 func TestIndependentEvaluation(t *testing.T) {
 	const tol = 1e-12 // both sides evaluate the same closed forms in double precision
