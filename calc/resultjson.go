@@ -48,7 +48,8 @@ func AppendResultsJSON(b []byte, rs []*Result) ([]byte, error) {
 // jsonSizeHint is a little above the length of r's JSON, so that the
 // buffer is allocated once: a bin row is at most about 400 bytes, a history
 // value 24 (shortest digits of a float64 and a comma), a property source
-// about 250 and the rest a few KB. An underestimate by a fifth had made
+// about 250, an atomizer estimate with its provenance about 1.2 KB and the
+// rest a few KB. An underestimate by a fifth had made
 // every result's buffer grow by doubling.
 func (r *Result) jsonSizeHint() int {
 	if r == nil {
@@ -60,6 +61,11 @@ func (r *Result) jsonSizeHint() int {
 	}
 	if h := r.History; h != nil {
 		n += 24 * (len(h.TS) + len(h.XM) + len(h.EvaporatedMassFraction) + len(h.D32M) + len(h.Dv50M))
+	}
+	if a := r.Atomizer; a != nil {
+		// Each estimate carries its provenance record (citation, what it
+		// was checked against, note): up to about 1.2 KB.
+		n += 1200*len(a.SMD) + 250*(len(a.Notes)+len(a.Warnings)+len(a.Groups))
 	}
 	return n
 }

@@ -359,6 +359,9 @@ func (s *Server) benchCompute(b *benchState, v *views.BenchView) {
 	if body, err := json.MarshalIndent(atomizeRequest{Family: f.ID, Correlation: b.corr, Inputs: b.inputs, Properties: &b.props}, "", "  "); err == nil {
 		v.APIJSON = string(body)
 	}
+	if len(f.Correlations) == 0 {
+		return // flow only: no drop size to size for, sample or sweep
+	}
 
 	if unknown := b.vals["solve_unknown"]; unknown != "" {
 		var t atomize.Target
@@ -563,7 +566,7 @@ func (s *Server) benchSweep(b *benchState, v *views.BenchView) {
 	if len(sw.Series) > 0 {
 		if svg, err := smd.SVG(); err == nil {
 			v.Sweep = &views.Plot{ID: "sweep", Title: smd.Title, SVG: svg,
-				Caption: "Each correlation's predicted diameter: solid inside every validity range it states, dashed outside it; grey dotted lines mark the range limits of the swept variable. Forms from memory, not checked against the printed sources."}
+				Caption: "Each correlation's predicted diameter: solid inside every validity range it states, dashed outside it; grey dotted lines mark the range limits of the swept variable. Whether each form was checked is listed under the family's correlations."}
 		} else {
 			s.Logger.Warn("sweep plot", "err", err)
 		}

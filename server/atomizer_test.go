@@ -72,8 +72,8 @@ func TestAtomizerBenchEvaluateSolveMonteCarloSweep(t *testing.T) {
 	if first, _ := rows.First().Attr("data-correlation"); first != "lefebvre-1987" {
 		t.Errorf("chosen correlation not first: %s", first)
 	}
-	if !strings.Contains(rows.First().Find(`.status`).Text(), "not yet checked against the printed source") {
-		t.Error("verification status not shown beside the correlation")
+	if !strings.Contains(rows.First().Find(`.status`).Text(), "checked against") {
+		t.Error("provenance status not shown beside the correlation")
 	}
 	if doc.Find(`[data-testid=smd-band]`).Length() != 1 || doc.Find(`[data-testid=groups-table] tbody tr`).Length() == 0 {
 		t.Error("band or dimensionless groups missing")

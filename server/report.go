@@ -138,6 +138,7 @@ var summaryCSVHeader = []string{
 	"reference_temperature (K)", "warnings",
 	"drop_temperature_model", "liquid_temperature (K)", "injection_temperature (K)",
 	"convection", "transition_correction", "accommodation_coefficient (-)",
+	"atomizer_correlation", "atomizer_source", "atomizer_status",
 }
 
 // modelCSVCells are the model columns of a summary row: how the drop
@@ -182,7 +183,20 @@ func summaryCSVRow(rec store.CaseRecord, res *calc.Result) []csvCell {
 		csvNum(c.KelvinLengthM * 1e9), csvNum(c.LaplaceOneAtmDM * 1e6), csvOpt(c.Enhancement1PctDM, 1e6), csvOpt(c.Enhancement10PctDM, 1e6), crit,
 		csvNum(c.ReferenceTemperatureK), csvInt(int64(len(res.Warnings))),
 	}
-	return append(row, modelCSVCells(rec.Case)...)
+	row = append(row, modelCSVCells(rec.Case)...)
+	return append(row, atomizerCSVCells(res)...)
+}
+
+// atomizerCSVCells are the correlation that sized the drops, its published
+// citation and its status from the correlation's provenance record; empty
+// when the drop sizes do not come from a nozzle.
+func atomizerCSVCells(res *calc.Result) []csvCell {
+	a := res.Atomizer
+	if a == nil || len(a.SMD) == 0 {
+		return textCells([]string{"", "", ""})
+	}
+	e := a.SMD[0] // the chosen correlation comes first
+	return textCells([]string{e.Correlation, e.Provenance.Citation.String(), e.Provenance.Status})
 }
 
 // evaluatedCase loads and computes the case of the route; a case that
