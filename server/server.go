@@ -67,7 +67,7 @@ func (s *Server) Handler() http.Handler {
 	r.Use(middleware.Timeout(30 * time.Second))
 	r.Use(securityHeaders)
 	r.Use(s.crossOrigin) // CSRF: cross-site POSTs get 403 (csrf.go)
-	r.Use(s.limitBody(MaxBodyBytes))
+	r.Use(s.limitBody(bodyLimit))
 	r.Use(s.requireToken)
 
 	sub, _ := fs.Sub(static.FS, ".")
@@ -236,7 +236,7 @@ func (s *Server) error(w http.ResponseWriter, r *http.Request, err error) {
 	status := statusOf(err)
 	msg := calc.ErrorMessage(err)
 	if status == http.StatusRequestEntityTooLarge {
-		msg = "The upload is larger than the limit of 8 MiB."
+		msg = "The upload is larger than the limit of " + limitText(err) + "."
 	}
 	if status == http.StatusInternalServerError {
 		s.Logger.Error("request failed", "path", r.URL.Path, "request_id", middleware.GetReqID(r.Context()), "err", err)
@@ -253,7 +253,7 @@ func (s *Server) apiError(w http.ResponseWriter, r *http.Request, err error) {
 	}
 	body := map[string]any{"error": calc.ErrorMessage(err)}
 	if status == http.StatusRequestEntityTooLarge {
-		body["error"] = "request body is larger than 8 MiB"
+		body["error"] = "request body is larger than " + limitText(err)
 	}
 	if fes := calc.FieldErrors(err); len(fes) > 0 {
 		fields := make([]map[string]string, len(fes))

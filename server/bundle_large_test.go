@@ -1,0 +1,158 @@
+package server
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"fmt"
+	"io"
+	"mime/multipart"
+	"net/http"
+	"strings"
+	"testing"
+
+	"fogbench/store"
+)
+
+// seedLargeLibrary writes n variants of the demo cases, each with notes of
+// about 2 KB (as engineers' notes run), into st in one import.
+func seedLargeLibrary(t *testing.T, st *store.Store, n int) {
+	t.Helper()
+	demo, err := store.DemoCases()
+	if err != nil {
+		t.Fatal(err)
+	}
+	notes := strings.Repeat("Measured on the test rig; nozzle re-seated after cleaning. ", 34)
+	b := store.Bundle{Format: store.BundleFormat, CaseCount: n}
+	for i := range n {
+		c := demo[i%len(demo)]
+		c.Name = fmt.Sprintf("Rig case %05d", i)
+		c.Notes = notes
+		c.Gas.TemperatureK += float64(i%40) * 0.5
+		c.Normalize()
+		body, err := c.Encode()
+		if err != nil {
+			t.Fatal(err)
+		}
+		b.Cases = append(b.Cases, store.BundleCase{UID: fmt.Sprintf("%032x", i+1), Tags: []string{"rig"},
+			Checksum: store.Checksum(body), Case: json.RawMessage(body)})
+	}
+	data, err := b.Encode()
+	if err != nil {
+		t.Fatal(err)
+	}
+	decoded, err := store.DecodeBundle(bytes.NewReader(data))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := st.Import(context.Background(), decoded, nil, "", "test"); err != nil {
+		t.Fatal(err)
+	}
+}
+
+// TestExportedLibraryImportsIntoAFreshServer exports a library larger than
+// the 8 MiB of ordinary requests (3,000 cases) and imports it into an empty
+// server through the API and through the import pages: every case arrives.
+// Before bundles had their own limit the import answered 413.
+func TestExportedLibraryImportsIntoAFreshServer(t *testing.T) {
+	if testing.Short() {
+		t.Skip("seeds 3,000 cases")
+	}
+	const n = 3000
+	srcStore := openTestStore(t)
+	seedLargeLibrary(t, srcStore, n)
+	src := newServerOver(t, srcStore)
+	c := client(t)
+	bundle, resp := getBody(t, c, src.URL+"/api/export")
+	if resp.StatusCode != http.StatusOK {
+		t.Fatalf("export: %d", resp.StatusCode)
+	}
+	if len(bundle) <= MaxBodyBytes {
+		t.Fatalf("the export is %d bytes, not above the 8 MiB of other requests", len(bundle))
+	}
+	t.Logf("%d cases exported in %.1f MB", n, float64(len(bundle))/1e6)
+
+	// The API.
+	dstStore := openTestStore(t)
+	dst := newServerOver(t, dstStore)
+	resp, err := c.Post(dst.URL+"/api/import", "application/json", bytes.NewReader(bundle))
+	if err != nil {
+		t.Fatal(err)
+	}
+	body, _ := io.ReadAll(resp.Body)
+	resp.Body.Close()
+	if resp.StatusCode != http.StatusOK {
+		t.Fatalf("API import: %d %.300s", resp.StatusCode, body)
+	}
+	if got, _ := dstStore.CountCases(context.Background()); got != n {
+		t.Fatalf("API import: %d cases in the library, want %d", got, n)
+	}
+
+	// The pages: upload, preview, apply.
+	webStore := openTestStore(t)
+	web := newServerOver(t, webStore)
+	upload := func(u, field, filename string, data []byte) *http.Response {
+		var buf bytes.Buffer
+		mw := multipart.NewWriter(&buf)
+		if filename != "" {
+			fw, _ := mw.CreateFormFile(field, filename)
+			fw.Write(data)
+		} else {
+			mw.WriteField(field, string(data))
+		}
+		mw.Close()
+		resp, err := c.Post(u, mw.FormDataContentType(), &buf)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return resp
+	}
+	resp = upload(web.URL+"/bundle/import", "file", "library.json", bundle)
+	doc := docOf(t, resp)
+	if k := doc.Find(`[data-testid=bundle-add]`).Length(); resp.StatusCode != http.StatusOK || k != n {
+		t.Fatalf("preview: %d, %d cases to add, want %d", resp.StatusCode, k, n)
+	}
+	carried, _ := doc.Find(`input[name=bundle]`).Attr("value")
+	resp = upload(web.URL+"/bundle/import/apply", "bundle", "", []byte(carried))
+	doc = docOf(t, resp)
+	if resp.StatusCode != http.StatusOK || doc.Find(`[data-testid=bundle-done]`).Length() != 1 {
+		t.Fatalf("apply: %d", resp.StatusCode)
+	}
+	if got, _ := webStore.CountCases(context.Background()); got != n {
+		t.Fatalf("page import: %d cases in the library, want %d", got, n)
+	}
+}
+
+// TestBundleLimitIsEnforcedWhileStreaming sends a chunked body past the
+// bundle limit (no length declared): it is cut at the limit and answered
+// 413 with the limit, and nothing is written.
+func TestBundleLimitIsEnforcedWhileStreaming(t *testing.T) {
+	if testing.Short() {
+		t.Skip("sends 256 MiB")
+	}
+	ts, st := newTestServer(t)
+	before, _ := st.CountCases(context.Background())
+	body := io.MultiReader(strings.NewReader(`{"format":"fogbench-bundle/1","cases":[`),
+		io.LimitReader(zeros{}, store.MaxBundleBytes+1024))
+	req, _ := http.NewRequest(http.MethodPost, ts.URL+"/api/import", body)
+	req.Header.Set("Content-Type", "application/json")
+	resp, err := client(t).Do(req)
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkTooLargeLimit(t, "chunked bundle", resp, "256 MiB")
+	resp.Body.Close()
+	if after, _ := st.CountCases(context.Background()); after != before {
+		t.Fatalf("%d cases after a refused import, was %d", after, before)
+	}
+}
+
+// zeros reads as endless JSON whitespace.
+type zeros struct{}
+
+func (zeros) Read(p []byte) (int, error) {
+	for i := range p {
+		p[i] = ' '
+	}
+	return len(p), nil
+}
