@@ -543,6 +543,9 @@ func restoreCmd(args []string, stdout, stderr io.Writer) int {
 		}
 		return 2
 	}
+	if len(rep.RemovedCopies) > 0 {
+		fmt.Fprintf(stdout, "removed %d temporary files an earlier, interrupted restore had left: %s\n", len(rep.RemovedCopies), strings.Join(rep.RemovedCopies, ", "))
+	}
 	fmt.Fprintf(stdout, "restored %s from %s: %d cases, schema %d; integrity check ok\n", *dbPath, pos[0], rep.Cases, rep.SchemaVersion)
 	if rep.KeptAside != "" {
 		fmt.Fprintf(stdout, "the previous library is kept as %s\n", rep.KeptAside)

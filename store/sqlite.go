@@ -57,6 +57,8 @@ func openSQLite(ctx context.Context, path string) (*Store, error) {
 	}
 	r.SetMaxOpenConns(4)
 	s.read = conn{r, d}
+	// Not being able to list the folder does not stop the library opening.
+	s.RemovedRestoreCopies, _ = RemoveStaleRestoreCopies(path)
 	return s, nil
 }
 
