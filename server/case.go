@@ -328,7 +328,7 @@ func (s *Server) handleCaseCreate(w http.ResponseWriter, r *http.Request) {
 	}
 	rec, err := s.Store.CreateCase(r.Context(), c, s.author(r))
 	if err != nil {
-		s.error(w, r, err)
+		s.caseSaveFailed(w, r, err, s.formView(r, "New case", "/cases", 0, 0, cf.Values, cf.Units, nil, c.Distribution.Model))
 		return
 	}
 	http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved", rec.ID), http.StatusSeeOther)
@@ -370,7 +370,7 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 	if r.PostForm.Get("as_copy") == "1" {
 		rec, err := s.Store.CreateCase(r.Context(), c, s.author(r))
 		if err != nil {
-			s.error(w, r, err)
+			s.caseSaveFailed(w, r, err, s.formView(r, "Edit "+c.Name, action, id, base, cf.Values, cf.Units, nil, c.Distribution.Model))
 			return
 		}
 		http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved+as+a+new+case", rec.ID), http.StatusSeeOther)
@@ -383,7 +383,7 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	if err != nil {
-		s.error(w, r, err)
+		s.caseSaveFailed(w, r, err, s.formView(r, "Edit "+c.Name, action, id, base, cf.Values, cf.Units, nil, c.Distribution.Model))
 		return
 	}
 	http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved+revision+%d", rec.ID, rec.Revision), http.StatusSeeOther)

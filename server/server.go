@@ -219,6 +219,9 @@ func statusOf(err error) int {
 		return http.StatusNotFound
 	case calc.Conflict:
 		return http.StatusConflict
+	case calc.Unavailable:
+		status, _ := storageStatus(err) // 507 disk full, 503 read-only
+		return status
 	case calc.Canceled:
 		// The request's time limit passed (chi's Timeout also answers
 		// 504) or the client left, when no one reads the answer.
@@ -241,6 +244,9 @@ func (s *Server) error(w http.ResponseWriter, r *http.Request, err error) {
 	if status == http.StatusInternalServerError {
 		s.Logger.Error("request failed", "path", r.URL.Path, "request_id", middleware.GetReqID(r.Context()), "err", err)
 	}
+	if _, ok := storageStatus(err); ok {
+		s.logStorage(r, err)
+	}
 	chrome := views.Chrome{Title: "Error", Display: display(r)}
 	s.render(w, r, status, chrome, views.ErrorPage(status, msg))
 }
@@ -252,6 +258,10 @@ func (s *Server) apiError(w http.ResponseWriter, r *http.Request, err error) {
 		s.Logger.Error("api request failed", "path", r.URL.Path, "request_id", middleware.GetReqID(r.Context()), "err", err)
 	}
 	body := map[string]any{"error": calc.ErrorMessage(err)}
+	if _, ok := storageStatus(err); ok {
+		s.logStorage(r, err)
+		body["code"] = storageCode(err)
+	}
 	if status == http.StatusRequestEntityTooLarge {
 		body["error"] = "request body is larger than " + limitText(err)
 	}
