@@ -11,6 +11,7 @@ import (
 	"strings"
 	"testing"
 
+	"fogbench/calc"
 	"fogbench/store"
 )
 
@@ -23,8 +24,16 @@ func seedLargeLibrary(t *testing.T, st *store.Store, n int) {
 		t.Fatal(err)
 	}
 	notes := strings.Repeat("Measured on the test rig; nozzle re-seated after cleaning. ", 34)
-	b := store.Bundle{Format: store.BundleFormat, CaseCount: n}
-	for i := range n {
+	const chunk = 1000 // imports of a few MB each
+	for from := 0; from < n; from += chunk {
+		importCases(t, st, demo, notes, from, min(from+chunk, n))
+	}
+}
+
+func importCases(t *testing.T, st *store.Store, demo []calc.Case, notes string, from, to int) {
+	t.Helper()
+	b := store.Bundle{Format: store.BundleFormat, CaseCount: to - from}
+	for i := from; i < to; i++ {
 		c := demo[i%len(demo)]
 		c.Name = fmt.Sprintf("Rig case %05d", i)
 		c.Notes = notes
