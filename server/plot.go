@@ -6,6 +6,7 @@ import (
 	"image/color"
 	"math"
 	"regexp"
+	"strconv"
 	"strings"
 
 	"gonum.org/v1/plot"
@@ -83,11 +84,11 @@ func (c chart) newPlot() (*plot.Plot, error) {
 	p.Add(plotter.NewGrid())
 	if c.LogX {
 		p.X.Scale = plot.LogScale{}
-		p.X.Tick.Marker = plot.LogTicks{Prec: -1}
+		p.X.Tick.Marker = sparseLogTicks{}
 	}
 	if c.LogY {
 		p.Y.Scale = plot.LogScale{}
-		p.Y.Tick.Marker = plot.LogTicks{Prec: -1}
+		p.Y.Tick.Marker = sparseLogTicks{}
 	}
 	xmin, xmax := math.Inf(1), math.Inf(-1)
 	ymin, ymax := math.Inf(1), math.Inf(-1)
@@ -167,6 +168,27 @@ func (c chart) newPlot() (*plot.Plot, error) {
 	settle(&p.X, c.LogX, xmin, xmax)
 	settle(&p.Y, c.LogY, ymin, ymax)
 	return p, nil
+}
+
+// sparseLogTicks are gonum's log ticks (a label per decade, minor ticks
+// between) for axes of up to two dozen decades, which every real plot here
+// stays within. A wider axis, which only absurd data make, gets about a
+// dozen labelled ticks and no minor ones, so that drawing it stays as cheap
+// as a normal plot (hundreds of decades took a second to draw).
+type sparseLogTicks struct{}
+
+func (sparseLogTicks) Ticks(min, max float64) []plot.Tick {
+	lo, hi := math.Floor(math.Log10(min)), math.Ceil(math.Log10(max))
+	if hi-lo <= 24 {
+		return plot.LogTicks{Prec: -1}.Ticks(min, max)
+	}
+	step := math.Ceil((hi - lo) / 12)
+	var ticks []plot.Tick
+	for e := lo; e <= hi; e += step {
+		v := math.Pow(10, e)
+		ticks = append(ticks, plot.Tick{Value: v, Label: strconv.FormatFloat(v, 'g', -1, 64)})
+	}
+	return ticks
 }
 
 // settle gives the axis a range gonum can draw: finite, positive on a log

@@ -184,6 +184,19 @@ func FuzzPlotBuilders(f *testing.F) {
 	f.Add(enc(7), uint8(1))
 	f.Add([]byte{}, uint8(3))
 	f.Fuzz(func(t *testing.T, raw []byte, axes uint8) {
+		defer func() {
+			if p := recover(); p != nil {
+				t.Fatalf("a chart builder or drawing panicked: %v", p)
+			}
+		}()
+		runBuilders(raw, axes)
+	})
+}
+
+// runBuilders runs every chart builder on numbers taken from raw and draws
+// each chart to SVG.
+func runBuilders(raw []byte, axes uint8) {
+	{
 		var v []float64
 		for i := 0; i+8 <= len(raw) && len(v) < 48; i += 8 {
 			v = append(v, math.Float64frombits(binary.LittleEndian.Uint64(raw[i:])))
@@ -205,11 +218,11 @@ func FuzzPlotBuilders(f *testing.F) {
 			func() {
 				defer func() {
 					if p := recover(); p != nil {
-						t.Fatalf("chart %q (log x %v, log y %v) panicked: %v", c.Title, c.LogX, c.LogY, p)
+						panic(fmt.Sprintf("chart %q (log x %v, log y %v): %v", c.Title, c.LogX, c.LogY, p))
 					}
 				}()
 				_, _ = c.SVG()
 			}()
 		}
-	})
+	}
 }
