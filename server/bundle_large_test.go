@@ -15,6 +15,9 @@ import (
 	"fogbench/store"
 )
 
+// rigNotes are about 2 KB of notes, as engineers' notes run.
+var rigNotes = strings.Repeat("Measured on the test rig; nozzle re-seated after cleaning. ", 34)
+
 // seedLargeLibrary writes n variants of the demo cases, each with notes of
 // about 2 KB (as engineers' notes run), into st in one import.
 func seedLargeLibrary(t *testing.T, st *store.Store, n int) {
@@ -23,7 +26,7 @@ func seedLargeLibrary(t *testing.T, st *store.Store, n int) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	notes := strings.Repeat("Measured on the test rig; nozzle re-seated after cleaning. ", 34)
+	notes := rigNotes
 	const chunk = 1000 // imports of a few MB each
 	for from := 0; from < n; from += chunk {
 		importCases(t, st, demo, notes, from, min(from+chunk, n))
@@ -31,6 +34,18 @@ func seedLargeLibrary(t *testing.T, st *store.Store, n int) {
 }
 
 func importCases(t *testing.T, st *store.Store, demo []calc.Case, notes string, from, to int) {
+	t.Helper()
+	decoded, err := store.DecodeBundle(bytes.NewReader(rigBundle(t, demo, notes, from, to)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := st.Import(context.Background(), decoded, nil, "", "test"); err != nil {
+		t.Fatal(err)
+	}
+}
+
+// rigBundle is a bundle of the cases from…to-1 of seedLargeLibrary.
+func rigBundle(t *testing.T, demo []calc.Case, notes string, from, to int) []byte {
 	t.Helper()
 	b := store.Bundle{Format: store.BundleFormat, CaseCount: to - from}
 	for i := from; i < to; i++ {
@@ -50,13 +65,7 @@ func importCases(t *testing.T, st *store.Store, demo []calc.Case, notes string, 
 	if err != nil {
 		t.Fatal(err)
 	}
-	decoded, err := store.DecodeBundle(bytes.NewReader(data))
-	if err != nil {
-		t.Fatal(err)
-	}
-	if _, err := st.Import(context.Background(), decoded, nil, "", "test"); err != nil {
-		t.Fatal(err)
-	}
+	return data
 }
 
 // TestExportedLibraryImportsIntoAFreshServer exports a library larger than
