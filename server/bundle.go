@@ -1,12 +1,14 @@
 package server
 
 import (
+	"context"
 	"encoding/json"
 	"fmt"
 	"io"
 	"net/http"
 	"strconv"
 	"strings"
+	"time"
 
 	"fogbench/calc"
 	"fogbench/store"
@@ -80,6 +82,8 @@ func importItemsJSON(items []store.ImportItem) []importItemJSON {
 // keep-both (default) or replace; ?dry_run=1 answers the plan and writes
 // nothing. A malformed or truncated bundle answers 400 and changes nothing.
 func (s *Server) handleAPIImport(w http.ResponseWriter, r *http.Request) {
+	ctx, cancel := bundleContext(w, r)
+	defer cancel()
 	b, err := store.DecodeBundle(r.Body)
 	if err != nil {
 		s.apiError(w, r, err)
@@ -91,7 +95,7 @@ func (s *Server) handleAPIImport(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	if r.URL.Query().Get("dry_run") == "1" {
-		plan, err := s.Store.PlanImport(r.Context(), b)
+		plan, err := s.Store.PlanImport(ctx, b)
 		if err != nil {
 			s.apiError(w, r, err)
 			return
@@ -103,7 +107,7 @@ func (s *Server) handleAPIImport(w http.ResponseWriter, r *http.Request) {
 		writeJSON(w, http.StatusOK, map[string]any{"plan": out})
 		return
 	}
-	res, err := s.Store.Import(r.Context(), b, nil, def, s.author(r))
+	res, err := s.Store.Import(ctx, b, nil, def, s.author(r))
 	if err != nil {
 		s.apiError(w, r, err)
 		return
@@ -156,6 +160,8 @@ func itemView(it store.ImportItem) views.BundleItem {
 // checked and the page lists what importing it would add, replace or keep.
 // Nothing is written.
 func (s *Server) handleImportPreview(w http.ResponseWriter, r *http.Request) {
+	ctx, cancel := bundleContext(w, r)
+	defer cancel()
 	v := views.BundleImportView{Chrome: importChrome(r), MaxBytes: store.MaxBundleBytes}
 	// The file is decoded as it arrives (store.DecodeBundle reads a
 	// stream), never buffered whole or spilled to a temporary file.
@@ -195,7 +201,7 @@ func (s *Server) handleImportPreview(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	hdr := struct{ Filename string }{filename}
-	plan, err := s.Store.PlanImport(r.Context(), b)
+	plan, err := s.Store.PlanImport(ctx, b)
 	if err != nil {
 		s.error(w, r, err)
 		return
@@ -222,6 +228,8 @@ func (s *Server) handleImportPreview(w http.ResponseWriter, r *http.Request) {
 // handleImportApply serves POST /bundle/import/apply: the previewed bundle
 // with the user's choices, applied in one transaction.
 func (s *Server) handleImportApply(w http.ResponseWriter, r *http.Request) {
+	ctx, cancel := bundleContext(w, r)
+	defer cancel()
 	v := views.BundleImportView{Chrome: importChrome(r), MaxBytes: store.MaxBundleBytes}
 	b, choices, err := readApplyForm(r)
 	if err != nil {
@@ -233,7 +241,7 @@ func (s *Server) handleImportApply(w http.ResponseWriter, r *http.Request) {
 		s.render(w, r, http.StatusBadRequest, v.Chrome, views.BundleImportPage(v))
 		return
 	}
-	res, err := s.Store.Import(r.Context(), b, choices, store.ImportKeepBoth, s.author(r))
+	res, err := s.Store.Import(ctx, b, choices, store.ImportKeepBoth, s.author(r))
 	if err != nil {
 		s.error(w, r, err)
 		return
@@ -299,4 +307,22 @@ func readApplyForm(r *http.Request) (store.Bundle, map[string]store.ImportChoice
 		return b, nil, err
 	}
 	return b, choices, nil
+}
+
+// BundleDeadline bounds a bundle import. Reading, checking and writing a
+// bundle near its limit takes minutes (a 29 MB bundle of 10,000 cases took
+// 22 s on a loaded machine), past the 30 s handler deadline and the
+// server's 60 s read and write timeouts that every other request keeps.
+const BundleDeadline = 10 * time.Minute
+
+// bundleContext extends the connection's read and write deadlines of a
+// bundle import to BundleDeadline and returns the context the import runs
+// under: BundleDeadline from now, no longer ended by the handler deadline
+// (nor by the client leaving: the import is all or nothing either way).
+func bundleContext(w http.ResponseWriter, r *http.Request) (context.Context, context.CancelFunc) {
+	until := time.Now().Add(BundleDeadline)
+	rc := http.NewResponseController(w)
+	rc.SetReadDeadline(until) // not every writer supports deadlines (tests' recorders)
+	rc.SetWriteDeadline(until)
+	return context.WithDeadline(context.WithoutCancel(r.Context()), until)
 }

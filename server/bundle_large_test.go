@@ -8,8 +8,10 @@ import (
 	"io"
 	"mime/multipart"
 	"net/http"
+	"net/http/httptest"
 	"strings"
 	"testing"
+	"time"
 
 	"fogbench/calc"
 	"fogbench/store"
@@ -173,4 +175,53 @@ func (zeros) Read(p []byte) (int, error) {
 		p[i] = ' '
 	}
 	return len(p), nil
+}
+
+// slowReader hands out data in pieces with a pause before each.
+type slowReader struct {
+	data  []byte
+	piece int
+	pause time.Duration
+}
+
+func (s *slowReader) Read(p []byte) (int, error) {
+	if len(s.data) == 0 {
+		return 0, io.EOF
+	}
+	time.Sleep(s.pause)
+	n := copy(p[:min(len(p), s.piece)], s.data)
+	s.data = s.data[n:]
+	return n, nil
+}
+
+// TestBundleImportOutlastsTheServerTimeouts imports a bundle whose upload
+// takes longer than the server's read and write timeouts (shortened here
+// to 1 s; 60 s in fogbench serve), as a bundle near its limit does: the
+// import routes extend both for themselves, so the import succeeds.
+func TestBundleImportOutlastsTheServerTimeouts(t *testing.T) {
+	st := openTestStore(t)
+	srv := httptest.NewUnstartedServer(New(st, nil).Handler())
+	srv.Config.ReadTimeout, srv.Config.WriteTimeout = time.Second, time.Second
+	srv.Start()
+	t.Cleanup(srv.Close)
+	demo, err := store.DemoCases()
+	if err != nil {
+		t.Fatal(err)
+	}
+	data := rigBundle(t, demo, "", 0, 20)
+	body := &slowReader{data: data, piece: len(data)/10 + 1, pause: 250 * time.Millisecond} // about 2.5 s
+	req, _ := http.NewRequest(http.MethodPost, srv.URL+"/api/import", body)
+	req.Header.Set("Content-Type", "application/json")
+	resp, err := client(t).Do(req)
+	if err != nil {
+		t.Fatalf("the slow import was cut off: %v", err)
+	}
+	out, _ := io.ReadAll(resp.Body)
+	resp.Body.Close()
+	if resp.StatusCode != http.StatusOK {
+		t.Fatalf("slow import: %d %.300s", resp.StatusCode, out)
+	}
+	if n, _ := st.CountCases(context.Background()); n != 20 {
+		t.Fatalf("%d cases after the slow import, want 20", n)
+	}
 }
