@@ -22,8 +22,8 @@ import (
 const BundleFormat = "fogbench-bundle/1"
 
 // MaxBundleBytes bounds a bundle read by DecodeBundle: 256 MiB, room for
-// a library of about 200,000 cases of the size the demo cases have (a
-// 10,000-case library exports to about 12 MB). The server accepts bundle
+// a library of about 290,000 cases of the size the demo cases have (10,000
+// of them export to 9.0 MB). The server accepts bundle
 // uploads up to this size on its import routes, above the 8 MiB of every
 // other request (docs/bundle-format.md).
 const MaxBundleBytes = 256 << 20
