@@ -11,6 +11,7 @@ import (
 	"github.com/jackc/pgx/v5/pgconn"
 
 	"fogbench/calc"
+	"fogbench/store/storetest"
 )
 
 // The database errors of a full disk and a read-only library become a
@@ -64,5 +65,44 @@ func TestStorageFaultsAreClassified(t *testing.T) {
 			t.Errorf("%s: write check says %v", f, err)
 		}
 		s.Close()
+	}
+}
+
+// On PostgreSQL a read-only session (a standby, or
+// default_transaction_read_only) refuses a save with 25006: the save is a
+// StorageError and the write check says so; opening a library on such a
+// session fails naming it. (SQLite: above.)
+func TestReadOnlyPostgresLibrary(t *testing.T) {
+	dsn := storetest.PostgresDSN(t) // skips without FOGBENCH_TEST_PG
+	ctx := context.Background()
+	s, err := Open(ctx, dsn)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer s.Close()
+	if _, err := s.CheckWritable(ctx); err != nil {
+		t.Fatalf("writable library: %v", err)
+	}
+	// One connection, made read-only for the rest of its session.
+	s.write.db.SetMaxOpenConns(1)
+	if _, err := s.write.db.ExecContext(ctx, `SET SESSION CHARACTERISTICS AS TRANSACTION READ ONLY`); err != nil {
+		t.Fatal(err)
+	}
+	_, err = s.CreateCase(ctx, demoCase(t), "test")
+	var se *StorageError
+	if !errors.As(err, &se) || se.Fault != StorageReadOnly || calc.ErrorCode(err) != calc.Unavailable {
+		t.Fatalf("save on a read-only session: %v", err)
+	}
+	if _, err := s.CheckWritable(ctx); !errors.As(err, &se) {
+		t.Fatalf("write check on a read-only session: %v", err)
+	}
+
+	sep := "?"
+	if strings.Contains(dsn, "?") {
+		sep = "&"
+	}
+	_, err = Open(ctx, dsn+sep+"default_transaction_read_only=on")
+	if !errors.As(err, &se) || !strings.Contains(err.Error(), "read-only") {
+		t.Fatalf("opening on a read-only session: %v", err)
 	}
 }
