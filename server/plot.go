@@ -148,25 +148,42 @@ func (c chart) newPlot() (*plot.Plot, error) {
 	if drawn == 0 {
 		return nil, fmt.Errorf("plot %q: no drawable points", c.Title)
 	}
+	type markLine struct {
+		x    float64
+		name string
+	}
+	var marks []markLine
 	for i, m := range c.Marks {
 		if !(m >= xmin && m <= xmax) || !drawable(m, c.LogX) {
 			continue
 		}
-		l, err := plotter.NewLine(plotter.XYs{{X: m, Y: ymin}, {X: m, Y: ymax}})
+		ml := markLine{x: m}
+		if i < len(c.MarkNames) {
+			ml.name = c.MarkNames[i]
+			legendLines++
+		}
+		marks = append(marks, ml)
+	}
+	headroom(p, c.LogY, ymin, ymax, legendLines)
+	settle(&p.X, c.LogX, xmin, xmax)
+	settle(&p.Y, c.LogY, ymin, ymax)
+	// Marks span the data; over flat data, the axis.
+	y0, y1 := ymin, ymax
+	if !(y1 > y0) {
+		y0, y1 = p.Y.Min, p.Y.Max
+	}
+	for _, m := range marks {
+		l, err := plotter.NewLine(plotter.XYs{{X: m.x, Y: y0}, {X: m.x, Y: y1}})
 		if err != nil {
 			return nil, err
 		}
 		l.Color = color.Gray{Y: 0x80}
 		l.Dashes = []vg.Length{vg.Points(2), vg.Points(2)}
 		p.Add(l)
-		if i < len(c.MarkNames) {
-			p.Legend.Add(c.MarkNames[i], l)
-			legendLines++
+		if m.name != "" {
+			p.Legend.Add(m.name, l)
 		}
 	}
-	headroom(p, c.LogY, ymin, ymax, legendLines)
-	settle(&p.X, c.LogX, xmin, xmax)
-	settle(&p.Y, c.LogY, ymin, ymax)
 	return p, nil
 }
 
