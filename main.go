@@ -6,7 +6,7 @@
 // Usage:
 //
 //	fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert C -tls-key K]
-//	fogbench eval [FILE|-]          evaluate case file(s), print results as JSON
+//	fogbench eval [-strict] [FILE|-]   evaluate case file(s), print results as JSON
 //	fogbench backup -db LIB FILE    consistent copy of a running library
 //	fogbench restore FILE -db LIB   replace a library with a checked backup
 //	fogbench report ID -o FILE.pdf  PDF report of a stored case
@@ -51,6 +51,9 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	cmd := "serve"
 	if len(args) > 0 && len(args[0]) > 0 && args[0][0] != '-' {
 		cmd, args = args[0], args[1:]
+	} else if len(args) > 0 && isHelpFlag(args[0]) {
+		// "fogbench -h" asks about fogbench, not about serve's flags.
+		cmd = "help"
 	}
 	switch cmd {
 	case "serve":
@@ -73,15 +76,28 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	return 2
 }
 
+// isHelpFlag reports whether arg is one of the spellings of a request for
+// help that the flag package answers.
+func isHelpFlag(arg string) bool {
+	switch arg {
+	case "-h", "-help", "--help", "--h":
+		return true
+	}
+	return false
+}
+
 const usage = `usage:
-  fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert CERT.pem -tls-key KEY.pem]
-  fogbench eval [FILE|-]            evaluate a case file (one case or an array) and print the results as JSON
+  fogbench [serve] [-addr 127.0.0.1:8080] [-db fogbench.db] [-tls-cert CERT.pem -tls-key KEY.pem] [-allow-host NAME]
+  fogbench eval [-strict] [FILE|-]  evaluate a case file (one case or an array) and print the results as JSON;
+                                    in an array a failing case gets its error in its place (-strict: exit non-zero then)
   fogbench backup [-db fogbench.db] FILE   write a consistent copy of the library (safe while serving)
   fogbench restore FILE [-db fogbench.db]  replace the library with a checked backup (stop the server first)
   fogbench report CASE-ID -o FILE.pdf [-db fogbench.db] [-paper a4|letter]   PDF report of a stored case
   fogbench migrate-store -from LIB -to LIB   copy a whole library into an empty one (SQLite file or postgres:// URL)
 
--db takes a SQLite file or a postgres://USER@HOST/DB URL (docs/stores.md).
+-db takes a SQLite file or a postgres://USER@HOST/DB URL (docs/stores.md);
+backup and restore work on SQLite files (a PostgreSQL library is backed up
+with pg_dump). "fogbench COMMAND -h" lists a command's flags.
 `
 
 func serve(args []string, stderr io.Writer) int {
@@ -93,6 +109,8 @@ func serve(args []string, stderr io.Writer) int {
 	tokenFile := fs.String("token-file", "", "file holding the access token (or set FOGBENCH_TOKEN); required for a non-loopback -addr")
 	tlsCert := fs.String("tls-cert", "", "serve HTTPS with this PEM certificate (with -tls-key)")
 	tlsKey := fs.String("tls-key", "", "PEM private key of -tls-cert")
+	var allowHosts hostList
+	fs.Var(&allowHosts, "allow-host", "without a token, also answer to this host name (NAME or NAME:PORT, e.g. a reverse proxy's); repeat or separate with commas")
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
@@ -159,6 +177,7 @@ func serve(args []string, stderr io.Writer) int {
 	app := server.New(st, logger)
 	app.SecureCookies = tlsConfig != nil
 	app.Token = token
+	app.AllowedHosts = allowHosts
 	srv := newHTTPServer(*addr, app.Handler())
 	srv.TLSConfig = tlsConfig
 	ln, err := net.Listen("tcp", *addr)
@@ -251,7 +270,20 @@ const serveMemoryLimit = 64 << 20
 
 // evalCmd reads case file(s) and prints the results as JSON: one object for
 // one case, an array for an array.
+//
+// An array never aborts for one case: a case that cannot be computed gets
+// its error object (calc.CaseError) in its place and a line on stderr, and
+// the exit code is 0 unless -strict, which exits with the first failing
+// case's code (2 bad input, 1 a fault). Ctrl-C stops the whole batch
+// (exit 130). A single case exits with its error as before.
 func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+	fs := flag.NewFlagSet("eval", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	strict := fs.Bool("strict", false, "exit non-zero when any case of an array fails (each failing case still has its error in its place)")
+	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	args = fs.Args()
 	if len(args) > 1 {
 		fmt.Fprintf(stderr, "fogbench eval: give one file or - for standard input\n")
 		return 2
@@ -309,15 +341,66 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		}
 		return 0
 	}
-	outs, i, err := encodeAll(ctx, cases, runtime.GOMAXPROCS(0))
-	if err != nil {
-		return failed(i, err)
+	if !array {
+		outs, i, err := encodeAll(ctx, cases, runtime.GOMAXPROCS(0))
+		if err != nil {
+			return failed(i, err)
+		}
+		if _, err := joinJSON(outs, false).WriteTo(stdout); err != nil {
+			fmt.Fprintf(stderr, "fogbench eval: %v\n", err)
+			return 1
+		}
+		return 0
 	}
-	if _, err := joinJSON(outs, array).WriteTo(stdout); err != nil {
+	outs, errs, err := encodeBatch(ctx, cases, runtime.GOMAXPROCS(0))
+	if err != nil {
+		// Only a stop (Ctrl-C) ends a batch early.
+		fmt.Fprintf(stderr, "fogbench eval: %s: %v\n", name, oneLine(err))
+		return 130
+	}
+	code := 0
+	for i, err := range errs {
+		if err != nil {
+			if c := failed(i, err); code == 0 {
+				code = c
+			}
+		}
+	}
+	if _, err := joinJSON(outs, true).WriteTo(stdout); err != nil {
 		fmt.Fprintf(stderr, "fogbench eval: %v\n", err)
 		return 1
 	}
-	return 0
+	if !*strict {
+		return 0
+	}
+	return code
+}
+
+// encodeBatch is encodeAll for an array: a failing case's encoding is its
+// calc.CaseError and its error is returned at its index in errs, and the
+// other cases go on. Only a stop of ctx (Canceled) ends the batch, with
+// that error.
+func encodeBatch(ctx context.Context, cases []calc.Case, workers int) ([][]byte, []error, error) {
+	outs := make([][]byte, len(cases))
+	errs := make([]error, len(cases))
+	_, err := runAll(len(cases), workers, func(i int) error {
+		res, err := calc.EvaluateContext(ctx, cases[i])
+		if err == nil {
+			outs[i], err = res.AppendJSON(nil)
+		}
+		if err != nil {
+			if calc.ErrorCode(err) == calc.Canceled {
+				return err
+			}
+			errs[i] = err
+			outs[i], err = json.Marshal(calc.NewCaseError(err))
+		}
+		return err
+	})
+	if err != nil {
+		return nil, nil, err
+	}
+	return outs, errs, nil
 }
 
 // encodeAll evaluates the cases on up to workers goroutines (cases are
@@ -418,7 +501,7 @@ func oneLine(err error) string {
 func backupCmd(args []string, stderr io.Writer) int {
 	fs := flag.NewFlagSet("backup", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	dbPath := fs.String("db", "fogbench.db", "SQLite case library")
+	dbPath := fs.String("db", "fogbench.db", "case library to copy: a SQLite file (a postgres:// library is backed up with pg_dump)")
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
@@ -456,7 +539,7 @@ func backupCmd(args []string, stderr io.Writer) int {
 func reportCmd(args []string, stderr io.Writer) int {
 	fs := flag.NewFlagSet("report", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	dbPath := fs.String("db", "fogbench.db", "SQLite case library")
+	dbPath := fs.String("db", "fogbench.db", "case library: a SQLite file or a postgres:// URL")
 	out := fs.String("o", "", "PDF file to write")
 	paper := fs.String("paper", "a4", "paper size: a4 or letter")
 	pos, ok := parseWithPositional(fs, args)
@@ -503,6 +586,23 @@ func reportCmd(args []string, stderr io.Writer) int {
 	return 0
 }
 
+// hostList collects -allow-host names.
+type hostList []string
+
+func (h *hostList) String() string { return strings.Join(*h, ",") }
+
+func (h *hostList) Set(v string) error {
+	for _, n := range strings.Split(v, ",") {
+		if n = strings.TrimSpace(n); n != "" {
+			if err := server.CheckAllowedHost(n); err != nil {
+				return err
+			}
+			*h = append(*h, n)
+		}
+	}
+	return nil
+}
+
 // loadToken reads the access token from -token-file, else from
 // FOGBENCH_TOKEN. Surrounding white space (a trailing newline) is dropped.
 // The token is never printed.
@@ -519,8 +619,10 @@ func loadToken(file, env string) (string, error) {
 		tok = string(data)
 	}
 	tok = strings.TrimSpace(tok)
-	if tok != "" && len(tok) < server.MinTokenLen {
-		return "", fmt.Errorf("the access token is too short: use at least %d characters (for example: head -c 24 /dev/urandom | base64)", server.MinTokenLen)
+	if tok != "" {
+		if err := server.CheckToken(tok); err != nil {
+			return "", err
+		}
 	}
 	return tok, nil
 }
@@ -546,7 +648,7 @@ func logWriteCheck(ctx context.Context, st *store.Store, logger *slog.Logger) {
 func restoreCmd(args []string, stdout, stderr io.Writer) int {
 	fs := flag.NewFlagSet("restore", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	dbPath := fs.String("db", "fogbench.db", "SQLite case library to replace")
+	dbPath := fs.String("db", "fogbench.db", "case library to replace: a SQLite file (a postgres:// library is restored with pg_restore)")
 	pos, ok := parseWithPositional(fs, args)
 	if !ok {
 		return 2

@@ -190,7 +190,7 @@ func TestEvalRefusesHostileInput(t *testing.T) {
 		{strings.Replace(one, `"bins":4}`, `"bins":4,"d_max_m":1e300}`, 1), "distribution.d_max_m"},
 		{"[" + strings.Repeat(one+",", calc.MaxBatchCases) + one + "]", "file"},
 		{"[" + one + strings.Repeat(" ", calc.MaxBatchFileBytes) + "]", "file"},
-		{`{"format":"fogbench-case/1","name":NaN}`, "file"},
+		{`{"format":"fogbench-case/1","name":NaN}`, "name: is not valid JSON at line 1, column 36"},
 	} {
 		var out, errb bytes.Buffer
 		code := run([]string{"eval", "-"}, strings.NewReader(c.in), &out, &errb)

@@ -27,10 +27,14 @@ func TestEvalCaseFile(t *testing.T) {
 	if err := json.Unmarshal(out.Bytes(), &res); err != nil {
 		t.Fatal(err)
 	}
-	for _, k := range []string{"d10_m", "d32_m", "d43_m", "dv10_m", "dv50_m", "dv90_m", "span"} {
+	for _, k := range []string{"d32_m", "d43_m", "dv10_m", "dv50_m", "dv90_m", "span"} {
 		if v := res.Summary[k]; v == nil || *v <= 0 {
 			t.Errorf("summary %s = %v", k, v)
 		}
+	}
+	// The case's Rosin–Rammler has q = 2.5: no number mean exists.
+	if v, ok := res.Summary["d10_m"]; !ok || v != nil {
+		t.Errorf("summary d10_m = %v (present %v), want null", v, ok)
 	}
 	if len(res.Bins) != 40 {
 		t.Fatalf("%d bins", len(res.Bins))
@@ -232,4 +236,64 @@ func TestReportCommand(t *testing.T) {
 	if _, err := os.Stat(filepath.Join(dir, "none.db")); err == nil {
 		t.Error("report created a library that did not exist")
 	}
+}
+
+// A batch never aborts for one case: each failing case has its error
+// object in its place, the others their results; the exit code is 0
+// unless -strict, which exits with the failing case's code.
+func TestEvalBatchWritesEachCaseError(t *testing.T) {
+	good := `{"format":"fogbench-case/1","name":"x","fluid":"water","liquid_temperature_k":300,
+	"gas":{"pressure_pa":101325,"temperature_k":300},"distribution":{"model":"rosin-rammler","x_m":2e-5,"q":3,"bins":10}}`
+	bad := `{"format":"fogbench-case/1","name":"bad","fluid":"water","liquid_temperature_k":300,
+	"gas":{"pressure_pa":101325,"temperature_k":300},"distribution":{"model":"rosin-rammler","x_m":2e-5,"q":-3,"bins":10}}`
+	// n-dodecane above its critical pressure in hot gas: a physical limit.
+	limit := `{"format":"fogbench-case/1","name":"limit","fluid":"n-dodecane",
+	"gas":{"pressure_pa":6e6,"temperature_k":900},"distribution":{"model":"rosin-rammler","d32_m":2e-5,"q":3,"bins":6}}`
+	in := "[" + good + "," + bad + "," + good + "," + limit + "]"
+	for _, strict := range []bool{false, true} {
+		args := []string{"eval", "-"}
+		if strict {
+			args = []string{"eval", "-strict", "-"}
+		}
+		var out, errb bytes.Buffer
+		code := run(args, strings.NewReader(in), &out, &errb)
+		want := 0
+		if strict {
+			want = 2
+		}
+		if code != want {
+			t.Errorf("strict %v: exit %d, want %d (%s)", strict, code, want, errb.String())
+		}
+		var res []map[string]json.RawMessage
+		if err := json.Unmarshal(out.Bytes(), &res); err != nil || len(res) != 4 {
+			t.Fatalf("strict %v: want an array of 4: %v %s", strict, err, out.String())
+		}
+		for _, i := range []int{0, 2} {
+			if _, ok := res[i]["summary"]; !ok {
+				t.Errorf("case %d: no result: %s", i+1, res[i])
+			}
+		}
+		var e calc.CaseError
+		if err := json.Unmarshal(mustMarshal(t, res[1]), &e); err != nil || e.Code != calc.Invalid ||
+			len(e.Fields) != 1 || e.Fields[0].Field != "distribution.q" {
+			t.Errorf("case 2: error object %s (%v)", res[1], err)
+		}
+		if err := json.Unmarshal(mustMarshal(t, res[3]), &e); err != nil || e.Code != calc.Invalid ||
+			!strings.Contains(e.Error, "critical") || strings.Contains(e.Error, "not a usable number") {
+			t.Errorf("case 4: error object %s (%v)", res[3], err)
+		}
+		msg := errb.String()
+		if !strings.Contains(msg, "case 2: ") || !strings.Contains(msg, "case 4: ") || strings.Count(msg, "\n") != 2 {
+			t.Errorf("strict %v: stderr %q: want one line for case 2 and one for case 4", strict, msg)
+		}
+	}
+}
+
+func mustMarshal(t *testing.T, v any) []byte {
+	t.Helper()
+	b, err := json.Marshal(v)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return b
 }

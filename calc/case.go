@@ -3,7 +3,6 @@ package calc
 import (
 	"bytes"
 	"encoding/json"
-	"errors"
 	"fmt"
 	"io"
 	"strings"
@@ -148,8 +147,11 @@ func DecodeBatch(r io.Reader, maxBytes, maxCases int) ([]Case, error) {
 	}
 	if trimmed[0] == '[' {
 		var raws []json.RawMessage
-		if err := json.Unmarshal(trimmed, &raws); err != nil {
-			return nil, jsonError("", err)
+		if err := valid.DecodeJSON(trimmed, &raws, "file"); err != nil {
+			return nil, err
+		}
+		if len(raws) == 0 {
+			return nil, &valid.FieldError{Field: "file", Message: "is an empty list; send one case or a list of at least one"}
 		}
 		if len(raws) > maxCases {
 			return nil, &valid.FieldError{Field: "file", Value: fmt.Sprint(len(raws)),
@@ -157,9 +159,10 @@ func DecodeBatch(r io.Reader, maxBytes, maxCases int) ([]Case, error) {
 		}
 		cases := make([]Case, len(raws))
 		for i, raw := range raws {
-			c, err := DecodeOne(raw)
+			// The list index names the case: "[2].gas.pressure_pa".
+			c, err := DecodeAt(raw, fmt.Sprintf("[%d]", i))
 			if err != nil {
-				return nil, fmt.Errorf("case %d: %w", i+1, err)
+				return nil, err
 			}
 			cases[i] = c
 		}
@@ -172,40 +175,27 @@ func DecodeBatch(r io.Reader, maxBytes, maxCases int) ([]Case, error) {
 	return []Case{c}, nil
 }
 
-// DecodeOne reads one case from JSON.
+// DecodeOne reads one case from JSON. Errors are field errors naming the
+// field by its path in the case file (valid.DecodeJSON); "file" stands for
+// the whole file.
 func DecodeOne(data []byte) (Case, error) {
-	var c Case
-	dec := json.NewDecoder(bytes.NewReader(data))
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(&c); err != nil {
-		return Case{}, jsonError(c.Name, err)
-	}
-	if dec.More() {
-		return Case{}, &valid.FieldError{Field: "file", Message: "unexpected data after the case object"}
-	}
-	return c, nil
+	return decodeCase(data, "file")
 }
 
-// jsonError turns encoding/json's errors into field errors where it can.
-func jsonError(_ string, err error) error {
-	var te *json.UnmarshalTypeError
-	var se *json.SyntaxError
-	switch {
-	case errors.As(err, &te):
-		field := te.Field
-		if field == "" {
-			field = "file"
-		}
-		return &valid.FieldError{Field: field, Value: te.Value, Message: fmt.Sprintf("must be a %s", te.Type.String())}
-	case errors.As(err, &se):
-		return &valid.FieldError{Field: "file", Message: fmt.Sprintf("malformed JSON at byte %d: %v", se.Offset, se)}
-	case strings.HasPrefix(err.Error(), "json: unknown field "):
-		name := strings.Trim(strings.TrimPrefix(err.Error(), "json: unknown field "), `"`)
-		return &valid.FieldError{Field: name, Message: "unknown field (see docs/case-format.md)"}
-	case errors.Is(err, io.ErrUnexpectedEOF), errors.Is(err, io.EOF):
-		return &valid.FieldError{Field: "file", Message: "case file ends too early (truncated JSON)"}
+// DecodeAt reads one case that sits at path inside a larger JSON document
+// (a list of cases, a bundle, a request): its errors name the field from
+// the document's top, "cases[0].case.gas.pressure_pa".
+func DecodeAt(data []byte, path string) (Case, error) {
+	c, err := decodeCase(data, "")
+	return c, valid.Within(path, err)
+}
+
+func decodeCase(data []byte, doc string) (Case, error) {
+	var c Case
+	if err := valid.DecodeJSON(data, &c, doc); err != nil {
+		return Case{}, err
 	}
-	return &valid.FieldError{Field: "file", Message: err.Error()}
+	return c, nil
 }
 
 // Encode writes the case as indented JSON, the form stored and exported.
@@ -257,8 +247,9 @@ func (d *Distribution) prune() {
 
 // MaxClassesPerRequest bounds the size classes one server request may ask
 // to evaluate, summed over its cases: evaluation time grows with the
-// classes (a transient 2000-class case takes seconds), and evaluation is
-// not interrupted when a client gives up.
+// classes (a transient 2000-class case takes seconds), and although
+// EvaluateContext stops when a client gives up, the work done until then
+// is spent.
 const MaxClassesPerRequest = 4000
 
 // Classes is the number of size classes the case will be evaluated in:

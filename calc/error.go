@@ -96,3 +96,29 @@ func FieldErrors(err error) valid.Errors {
 	}
 	return nil
 }
+
+// CaseError is what a batch (an array of cases in `fogbench eval` or
+// POST /api/evaluate) writes in place of the result of a case that could
+// not be computed, so one case never aborts the others: the message a
+// user sees (ErrorMessage), the code, and the fields named.
+type CaseError struct {
+	Error  string           `json:"error"`
+	Code   Code             `json:"code"`
+	Fields []CaseErrorField `json:"fields,omitempty"`
+}
+
+// CaseErrorField is one field error of a CaseError.
+type CaseErrorField struct {
+	Field   string `json:"field"`
+	Message string `json:"message"`
+	Value   string `json:"value,omitempty"`
+}
+
+// NewCaseError returns the CaseError of err.
+func NewCaseError(err error) CaseError {
+	ce := CaseError{Error: ErrorMessage(err), Code: ErrorCode(err)}
+	for _, fe := range FieldErrors(err) {
+		ce.Fields = append(ce.Fields, CaseErrorField{Field: fe.Field, Message: fe.Message, Value: fe.Value})
+	}
+	return ce
+}

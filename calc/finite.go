@@ -22,7 +22,7 @@ func nonFinite(r *Result) string {
 		return ""
 	}
 	s := &r.Summary
-	sv := [...]float64{s.D10M, s.D20M, s.D30M, s.D32M, s.D43M, s.Dv10M, s.Dv50M, s.Dv90M, s.Span, s.RelativeSpan,
+	sv := [...]float64{opt(s.D10M), opt(s.D20M), opt(s.D30M), s.D32M, s.D43M, s.Dv10M, s.Dv50M, s.Dv90M, s.Span, s.RelativeSpan,
 		opt(s.T50S), opt(s.T90S), opt(s.T99S), opt(s.DropsPerSecond)}
 	if p := firstNonFinite("summary.", summaryNames[:], sv[:]); p != "" {
 		return p
@@ -48,6 +48,13 @@ func nonFinite(r *Result) string {
 		pr.FilmConductivityWMK, pr.FilmHeatCapacityJKgK, pr.DiffusivityM2S, pr.MeanFreePathM, pr.AmbientVaporMoleFraction}
 	if p := firstNonFinite("properties.", propertyNames[:], pv[:]); p != "" {
 		return p
+	}
+	if e := r.Equilibrium; e != nil {
+		ev := [...]float64{e.TemperatureK, e.FlatVaporPressurePa, e.PoyntingFactor, e.FugacityFactor, e.EnhancementFactor,
+			e.DissolvedGasMoleFraction, e.LatentHeatJKg, opt(e.MixtureCriticalTemperatureK)}
+		if p := firstNonFinite("equilibrium.", equilibriumNames[:], ev[:]); p != "" {
+			return p
+		}
 	}
 	if h := r.History; h != nil {
 		for _, s := range [...]struct {
@@ -117,6 +124,8 @@ var (
 		"molar_mass_kg_mol", "molar_volume_m3_mol", "normal_boiling_point_k", "gas_density_kg_m3",
 		"film_temperature_k", "film_density_kg_m3", "film_viscosity_pa_s", "film_conductivity_w_m_k",
 		"film_heat_capacity_j_kg_k", "diffusivity_m2_s", "mean_free_path_m", "ambient_vapor_mole_fraction"}
+	equilibriumNames = [...]string{"temperature_k", "flat_vapor_pressure_pa", "poynting_factor", "fugacity_factor",
+		"enhancement_factor", "dissolved_gas_mole_fraction", "latent_heat_j_kg", "mixture_critical_temperature_k"}
 	superheatNames = [...]string{"temperature_k", "pressure_pa", "saturation_temperature_k", "saturation_pressure_pa",
 		"delta_t_k", "pressure_ratio", "jakob", "vapor_density_kg_m3", "bubble_vapor_pressure_pa",
 		"critical_bubble_radius_m", "nucleation_barrier_j", "nucleation_barrier_kt", "nucleation_rate_m3_s",

@@ -71,7 +71,12 @@ func checkOutcome(t *testing.T, c Case, res *Result, err error) {
 		t.Fatalf("fractions sum to %g (number) and %g (volume)", nsum, vsum)
 	}
 	s := res.Summary
-	for _, d := range []float64{s.D10M, s.D32M, s.D43M, s.Dv10M, s.Dv50M, s.Dv90M} {
+	for _, p := range []*float64{s.D10M, s.D20M, s.D30M} {
+		if p != nil && !(*p > 0) {
+			t.Fatalf("summary number mean %g in %+v", *p, s)
+		}
+	}
+	for _, d := range []float64{s.D32M, s.D43M, s.Dv10M, s.Dv50M, s.Dv90M} {
 		if !(d > 0) {
 			t.Fatalf("summary diameter %g in %+v", d, s)
 		}

@@ -18,8 +18,9 @@ import (
 // differ. A stagnant drop's heat-to-mass transfer ratio is the Lewis number
 // (Nu = Sh = 2), about 0.85 for water vapor in air, where adiabatic
 // saturation has 1; with c_p,v = 1870 in the Stefan-flow form the drop runs
-// up to 1–1.5 K colder in dry air (REFERENCE-DATA §6.6: 6.948 against
-// 8.248 °C at 25 °C) and the gap closes towards saturation. Hence ±2 K, the
+// up to 1–1.5 K colder in dry air (Abramzon & Sirignano 1989 stagnant form,
+// from memory, computed by independent arithmetic: 6.948 against 8.248 °C at
+// 25 °C) and the gap closes towards saturation. Hence ±2 K, the
 // drop never warmer than the wet bulb by more than tolWarm = 0.01 K, and the
 // gap at 90 % RH smaller than in dry air at the same dry-bulb temperature.
 // Rows whose wet bulb is below 2 °C are left out: the drop would fall below

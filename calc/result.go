@@ -7,12 +7,16 @@ import "fogbench/calc/atomize"
 // warning. JSON names carry SI units; quantities that do not exist for a case
 // (a drop that never evaporates) are null, never NaN or Inf.
 type Result struct {
-	Summary    Summary         `json:"summary"`
-	Bins       []BinResult     `json:"bins"`
-	Curvature  Curvature       `json:"curvature"`
-	Properties Properties      `json:"properties"`
-	History    *History        `json:"history,omitempty"`
-	Atomizer   *atomize.Result `json:"atomizer,omitempty"`
+	Summary    Summary     `json:"summary"`
+	Bins       []BinResult `json:"bins"`
+	Curvature  Curvature   `json:"curvature"`
+	Properties Properties  `json:"properties"`
+	// Equilibrium is the flat-surface equilibrium at the gas pressure at
+	// the reference temperature (see calc/equilibrium.go); nil when the
+	// gas has no equation-of-state constants.
+	Equilibrium *Equilibrium    `json:"equilibrium,omitempty"`
+	History     *History        `json:"history,omitempty"`
+	Atomizer    *atomize.Result `json:"atomizer,omitempty"`
 	// Superheat is set when the liquid leaves the nozzle at or above its
 	// boiling point at the gas pressure; the evaporation fields are then
 	// not computed (see calc/superheat.go).
@@ -22,16 +26,20 @@ type Result struct {
 
 // Summary holds the spray-level figures.
 type Summary struct {
-	D10M         float64 `json:"d10_m"`
-	D20M         float64 `json:"d20_m"`
-	D30M         float64 `json:"d30_m"`
-	D32M         float64 `json:"d32_m"`
-	D43M         float64 `json:"d43_m"`
-	Dv10M        float64 `json:"dv10_m"`
-	Dv50M        float64 `json:"dv50_m"`
-	Dv90M        float64 `json:"dv90_m"`
-	Span         float64 `json:"span"`
-	RelativeSpan float64 `json:"relative_span"`
+	// D10M, D20M and D30M are null, with a warning, when the model's
+	// number distribution has no such mean (a Rosin–Rammler with q ≤ 3:
+	// its number density diverges at D → 0, so the classes' means only
+	// follow the lower cut).
+	D10M         *float64 `json:"d10_m"`
+	D20M         *float64 `json:"d20_m"`
+	D30M         *float64 `json:"d30_m"`
+	D32M         float64  `json:"d32_m"`
+	D43M         float64  `json:"d43_m"`
+	Dv10M        float64  `json:"dv10_m"`
+	Dv50M        float64  `json:"dv50_m"`
+	Dv90M        float64  `json:"dv90_m"`
+	Span         float64  `json:"span"`
+	RelativeSpan float64  `json:"relative_span"`
 	// Times to 50, 90 and 99 % of the liquid mass evaporated; null when the
 	// spray does not get there (saturated surroundings).
 	T50S *float64 `json:"t50_s"`
@@ -60,6 +68,39 @@ type BinResult struct {
 	// Grows is set only in supersaturated surroundings: whether the class's
 	// radius exceeds Curvature.KelvinCriticalRadiusM, so its drops grow.
 	Grows *bool `json:"grows,omitempty"`
+	// Transcritical is set when the class's surface reaches the mixture
+	// critical point of liquid and gas: its evaporation model stops there
+	// (present only when true).
+	Transcritical bool `json:"transcritical,omitempty"`
+}
+
+// Equilibrium is the vapor's equilibrium over a flat surface of the liquid
+// at the gas pressure and the reference surface temperature:
+// y_v φ_v p = x_L p_sat φ_sat exp(v_L (p − p_sat)/(R T)). Each class's
+// vapor_pressure_pa is FlatVaporPressurePa times its Kelvin ratio at its
+// own surface temperature.
+type Equilibrium struct {
+	TemperatureK float64 `json:"temperature_k"`
+	// FlatVaporPressurePa is the equilibrium partial pressure y_v p, Pa.
+	FlatVaporPressurePa float64 `json:"flat_vapor_pressure_pa"`
+	// PoyntingFactor is exp(v_L (p − p_sat)/(R T)).
+	PoyntingFactor float64 `json:"poynting_factor"`
+	// FugacityFactor is φ_sat/φ_v.
+	FugacityFactor float64 `json:"fugacity_factor"`
+	// EnhancementFactor is FlatVaporPressurePa / p_sat.
+	EnhancementFactor float64 `json:"enhancement_factor"`
+	// DissolvedGasMoleFraction is 1 − x_L.
+	DissolvedGasMoleFraction float64 `json:"dissolved_gas_mole_fraction"`
+	// LatentHeatJKg is the heat of vaporisation at the surface state at the
+	// gas pressure (the liquid's L(T) corrected by Peng–Robinson departure
+	// functions, or for water by the virial guideline's and the liquid's
+	// enthalpy change with pressure), J/kg.
+	LatentHeatJKg float64 `json:"latent_heat_j_kg"`
+	// MixtureCriticalTemperatureK is the surface temperature at which the
+	// surface reaches the mixture critical point at the gas pressure
+	// (only at or above the liquid's critical pressure).
+	MixtureCriticalTemperatureK *float64 `json:"mixture_critical_temperature_k,omitempty"`
+	Method                      string   `json:"method"`
 }
 
 // Curvature summarises where the Kelvin effect matters for this case.

@@ -48,15 +48,24 @@ func AppendResultsJSON(b []byte, rs []*Result) ([]byte, error) {
 // jsonSizeHint is a little above the length of r's JSON, so that the
 // buffer is allocated once: a bin row is at most about 400 bytes, a history
 // value 24 (shortest digits of a float64 and a comma), a property source
-// about 250 and the rest a few KB. An underestimate by a fifth had made
+// about 250, an atomizer estimate with its provenance about 1.2 KB and the
+// rest a few KB. An underestimate by a fifth had made
 // every result's buffer grow by doubling.
 func (r *Result) jsonSizeHint() int {
 	if r == nil {
 		return 4
 	}
 	n := 4096 + 400*len(r.Bins) + 250*len(r.Properties.Sources)
+	if e := r.Equilibrium; e != nil {
+		n += 300 + len(e.Method)
+	}
 	if h := r.History; h != nil {
 		n += 24 * (len(h.TS) + len(h.XM) + len(h.EvaporatedMassFraction) + len(h.D32M) + len(h.Dv50M))
+	}
+	if a := r.Atomizer; a != nil {
+		// Each estimate carries its provenance record (citation, what it
+		// was checked against, note): up to about 1.2 KB.
+		n += 1200*len(a.SMD) + 250*(len(a.Notes)+len(a.Warnings)+len(a.Groups))
 	}
 	return n
 }
@@ -214,6 +223,10 @@ func (w *jsonWriter) result(r *Result) {
 	w.curvature(&r.Curvature)
 	w.raw(`,"properties":`)
 	w.properties(&r.Properties)
+	if e := r.Equilibrium; e != nil {
+		w.raw(`,"equilibrium":`)
+		w.equilibrium(e)
+	}
 	if h := r.History; h != nil {
 		w.raw(`,"history":`)
 		w.history(h)
@@ -233,11 +246,11 @@ func (w *jsonWriter) result(r *Result) {
 
 func (w *jsonWriter) summary(s *Summary) {
 	w.raw(`{"d10_m":`)
-	w.float(s.D10M)
+	w.floatPtr(s.D10M)
 	w.raw(`,"d20_m":`)
-	w.float(s.D20M)
+	w.floatPtr(s.D20M)
 	w.raw(`,"d30_m":`)
-	w.float(s.D30M)
+	w.floatPtr(s.D30M)
 	w.raw(`,"d32_m":`)
 	w.float(s.D32M)
 	w.raw(`,"d43_m":`)
@@ -301,6 +314,33 @@ func (w *jsonWriter) bin(b *BinResult) {
 			w.raw(`,"grows":false`)
 		}
 	}
+	if b.Transcritical {
+		w.raw(`,"transcritical":true`)
+	}
+	w.b = append(w.b, '}')
+}
+
+func (w *jsonWriter) equilibrium(e *Equilibrium) {
+	w.raw(`{"temperature_k":`)
+	w.float(e.TemperatureK)
+	w.raw(`,"flat_vapor_pressure_pa":`)
+	w.float(e.FlatVaporPressurePa)
+	w.raw(`,"poynting_factor":`)
+	w.float(e.PoyntingFactor)
+	w.raw(`,"fugacity_factor":`)
+	w.float(e.FugacityFactor)
+	w.raw(`,"enhancement_factor":`)
+	w.float(e.EnhancementFactor)
+	w.raw(`,"dissolved_gas_mole_fraction":`)
+	w.float(e.DissolvedGasMoleFraction)
+	w.raw(`,"latent_heat_j_kg":`)
+	w.float(e.LatentHeatJKg)
+	if e.MixtureCriticalTemperatureK != nil {
+		w.raw(`,"mixture_critical_temperature_k":`)
+		w.float(*e.MixtureCriticalTemperatureK)
+	}
+	w.raw(`,"method":`)
+	w.str(e.Method)
 	w.b = append(w.b, '}')
 }
 

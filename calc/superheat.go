@@ -83,6 +83,7 @@ func (s *setup) evaluateSuperheated(res *Result, tl float64, field string) (*Res
 	res.Superheat = superheatResult(fr, field)
 	res.Warnings = append(res.Warnings, fmt.Sprintf("The liquid at %.1f K is %.3g K above its boiling point at the gas pressure (p_sat/p = %.3g): it is superheated and may flash-boil, so the quasi-steady evaporation model does not apply. Per-class evaporation rates, lifetimes and the spray history are not computed; see the superheat figures.", tl, fr.DeltaTK, fr.PressureRatio))
 	res.Warnings = append(res.Warnings, fr.Warnings...)
+	res.Warnings = append(res.Warnings, s.stateWarnings(tl, tl, "the superheated liquid's temperature")...)
 
 	cond := s.conditions(true)
 	res.Properties = s.properties(tl)

@@ -141,7 +141,7 @@ func compareJSON(path string, want, got any, diffs *[]string) {
 		}
 	case float64:
 		tol := 1e-12
-		if strings.Contains(path, "/bins/") || strings.Contains(path, "/properties/") || strings.Contains(path, "/curvature/") {
+		if strings.Contains(path, "/bins/") || strings.Contains(path, "/properties/") || strings.Contains(path, "/curvature/") || strings.Contains(path, "/equilibrium/") {
 			tol = steadyGoldenTol
 		}
 		if strings.HasSuffix(path, "/lifetime_s") || strings.Contains(path, "/history/") ||

@@ -9,13 +9,19 @@ import (
 	"net/http"
 	"strconv"
 
+	"github.com/go-chi/chi/v5/middleware"
+
 	"fogbench/calc"
 	"fogbench/calc/valid"
 	"fogbench/store"
 )
 
 // handleAPIEvaluate serves POST /api/evaluate: a case file in, its result
-// out (an array in, an array out).
+// out (an array in, an array out). In an array a case that cannot be
+// computed gets its error object (calc.CaseError) in its place and the
+// answer is still 200, so one case never aborts the batch; with
+// ?strict=1 the first failing case's error is the answer, as for a single
+// case. A stop (time limit, client gone) ends the whole request.
 func (s *Server) handleAPIEvaluate(w http.ResponseWriter, r *http.Request) {
 	cases, isArray, err := decodeBody(r)
 	if err != nil {
@@ -26,15 +32,31 @@ func (s *Server) handleAPIEvaluate(w http.ResponseWriter, r *http.Request) {
 		s.apiError(w, r, err)
 		return
 	}
+	strict := r.URL.Query().Get("strict") == "1" || r.URL.Query().Get("strict") == "true"
 	results := make([]*calc.Result, len(cases))
+	failures := make([]error, len(cases))
 	for i, c := range cases {
 		res, err := calc.EvaluateContext(r.Context(), c)
 		if err != nil {
-			if isArray {
+			if !isArray {
+				s.apiError(w, r, err)
+				return
+			}
+			if len(calc.FieldErrors(err)) > 0 {
+				// The list index names the case, as for a decoding error:
+				// "[1].gas.pressure_pa".
+				err = valid.Within(fmt.Sprintf("[%d]", i), err)
+			} else {
 				err = fmt.Errorf("case %d: %w", i+1, err)
 			}
-			s.apiError(w, r, err)
-			return
+			if strict || calc.ErrorCode(err) == calc.Canceled {
+				s.apiError(w, r, err)
+				return
+			}
+			if calc.ErrorCode(err) == calc.Internal {
+				s.Logger.Error("api evaluate: case failed", "path", r.URL.Path, "request_id", middleware.GetReqID(r.Context()), "err", err)
+			}
+			failures[i] = err
 		}
 		results[i] = res
 	}
@@ -44,10 +66,29 @@ func (s *Server) handleAPIEvaluate(w http.ResponseWriter, r *http.Request) {
 	buf := pageBuffer()
 	defer putPageBuffer(buf)
 	data := buf.AvailableBuffer()
-	if isArray {
-		data, err = calc.AppendResultsJSON(data, results)
-	} else {
+	switch {
+	case !isArray:
 		data, err = results[0].AppendJSON(data)
+	case !hasError(failures):
+		data, err = calc.AppendResultsJSON(data, results)
+	default:
+		data = append(data, '[')
+		for i, res := range results {
+			if i > 0 {
+				data = append(data, ',')
+			}
+			if failures[i] != nil {
+				var e []byte
+				e, err = json.Marshal(calc.NewCaseError(failures[i]))
+				data = append(data, e...)
+			} else {
+				data, err = res.AppendJSON(data)
+			}
+			if err != nil {
+				break
+			}
+		}
+		data = append(data, ']')
 	}
 	if err != nil {
 		s.apiError(w, r, err)
@@ -59,6 +100,15 @@ func (s *Server) handleAPIEvaluate(w http.ResponseWriter, r *http.Request) {
 	w.Header().Set("Content-Length", strconv.Itoa(len(data)))
 	w.WriteHeader(http.StatusOK)
 	w.Write(data)
+}
+
+func hasError(errs []error) bool {
+	for _, err := range errs {
+		if err != nil {
+			return true
+		}
+	}
+	return false
 }
 
 // decodeBody reads one case or an array of cases from a request body.
@@ -185,27 +235,30 @@ func (s *Server) handleAPICaseUpdate(w http.ResponseWriter, r *http.Request) {
 		Revision int             `json:"revision"`
 		Case     json.RawMessage `json:"case"`
 	}
-	dec := json.NewDecoder(r.Body)
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(&body); err != nil {
-		if isTooLarge(err) {
-			s.apiError(w, r, err) // 413 with the limit, not a JSON complaint
-			return
-		}
-		s.apiError(w, r, &valid.FieldError{Field: "file", Message: "expected {\"revision\":N,\"case\":{…}}: " + err.Error()})
+	data, err := io.ReadAll(r.Body)
+	if err != nil {
+		s.apiError(w, r, err) // 413 with the limit, not a JSON complaint
+		return
+	}
+	if err := valid.DecodeJSON(data, &body, "request"); err != nil {
+		s.apiError(w, r, err)
 		return
 	}
 	if body.Revision <= 0 {
 		s.apiError(w, r, &valid.FieldError{Field: "revision", Message: "give the revision your change is based on"})
 		return
 	}
-	c, err := calc.DecodeOne(body.Case)
+	if len(body.Case) == 0 || string(body.Case) == "null" {
+		s.apiError(w, r, &valid.FieldError{Field: "case", Message: `give the case: {"revision":N,"case":{…}}`})
+		return
+	}
+	c, err := calc.DecodeAt(body.Case, "case")
 	if err != nil {
 		s.apiError(w, r, err)
 		return
 	}
 	if err := calc.Validate(c); err != nil {
-		s.apiError(w, r, err)
+		s.apiError(w, r, valid.Within("case", err)) // the case's fields sit under "case"
 		return
 	}
 	rec, err := s.Store.UpdateCase(r.Context(), id, body.Revision, c, s.author(r))

@@ -3,6 +3,7 @@ package server
 import (
 	"context"
 	"encoding/json"
+	"math"
 	"net/http"
 	"net/url"
 	"strings"
@@ -71,8 +72,8 @@ func TestAtomizerBenchEvaluateSolveMonteCarloSweep(t *testing.T) {
 	if first, _ := rows.First().Attr("data-correlation"); first != "lefebvre-1987" {
 		t.Errorf("chosen correlation not first: %s", first)
 	}
-	if !strings.Contains(rows.First().Find(`.status`).Text(), "not yet checked against the printed source") {
-		t.Error("verification status not shown beside the correlation")
+	if !strings.Contains(rows.First().Find(`.status`).Text(), "checked against") {
+		t.Error("provenance status not shown beside the correlation")
 	}
 	if doc.Find(`[data-testid=smd-band]`).Length() != 1 || doc.Find(`[data-testid=groups-table] tbody tr`).Length() == 0 {
 		t.Error("band or dimensionless groups missing")
@@ -98,6 +99,18 @@ func TestAtomizerBenchEvaluateSolveMonteCarloSweep(t *testing.T) {
 	doc, _ = getDoc(t, c, ts.URL+"/atomizers/pressure-swirl?"+q.Encode())
 	if txt := doc.Find(`[data-testid=solution-unreached]`).Text(); !strings.Contains(txt, "nearest") {
 		t.Errorf("unreachable target: %q", doc.Find(`[data-testid=solution]`).Text())
+	}
+}
+
+// The workbench never takes the liquid at the gas temperature: an empty
+// liquid temperature is marked beside its field.
+func TestAtomizerBenchNeedsTheSupplyTemperature(t *testing.T) {
+	ts, _ := newTestServer(t)
+	q := benchQuery()
+	q.Set("liquid_temperature", "")
+	doc, _ := getDoc(t, client(t), ts.URL+"/atomizers/pressure-swirl?"+q.Encode())
+	if txt := doc.Find(`[data-testid="error-liquid_temperature"]`).Text(); !strings.Contains(txt, "supplied at") {
+		t.Errorf("empty liquid temperature: %q (form errors %q)", txt, doc.Find(`[data-testid=form-errors]`).Text())
 	}
 }
 
@@ -199,6 +212,13 @@ func TestAtomizerIntoCase(t *testing.T) {
 	if d.Model != "atomizer" || d.Family != "pressure-swirl" || d.Inputs["delta_p_pa"] != 1e6 || d.Inputs["orifice_diameter_m"] != 1e-3 || d.Inputs["mass_flow_kg_s"] != 0.01 {
 		t.Fatalf("stored distribution %+v", d)
 	}
+	// The bench's 20 °C liquid is the nozzle's supply (injection)
+	// temperature, and the 25 °C gas heats the drops from it; the drops'
+	// surface temperature is not fixed at it.
+	if tc := rec.Case; tc.InjectionTemperatureK == nil || math.Abs(*tc.InjectionTemperatureK-293.15) > 1e-9 ||
+		tc.Heating != "transient" || tc.LiquidTemperatureK != nil {
+		t.Errorf("stored temperatures: injection %v, heating %q, fixed %v", tc.InjectionTemperatureK, tc.Heating, tc.LiquidTemperatureK)
+	}
 	doc, _ = getDoc(t, c, ts.URL+"/cases/"+m[1])
 	if doc.Find(`[data-testid=atomizer-panel] [data-testid=smd-row]`).Length() < 2 {
 		t.Fatalf("case page lacks the atomizer panel: %s", doc.Find(`[data-testid=compute-error]`).Text())
@@ -252,13 +272,38 @@ func TestAPIAtomize(t *testing.T) {
 	for _, tc := range []struct{ body, field string }{
 		{strings.Replace(body, `"orifice_diameter_m":1e-3`, `"orifice_diameter_m":-1`, 1), "distribution.inputs.orifice_diameter_m"},
 		{strings.Replace(body, `"water"`, `"treacle"`, 1), "fluid"},
-		{strings.Replace(body, `"family"`, `"famliy"`, 1), "body"},
+		// The liquid is taken at its supply temperature, never the gas's.
+		{strings.Replace(body, `"liquid_temperature_k":293.15,`, ``, 1), "liquid_temperature_k"},
+		{strings.Replace(body, `"family"`, `"famliy"`, 1), "famliy"},
 	} {
 		code, out := post("/api/atomize", tc.body)
 		var fields []map[string]string
 		json.Unmarshal(out["fields"], &fields)
 		if code != 400 || len(fields) == 0 || fields[0]["field"] != tc.field {
 			t.Errorf("want 400 on %s, got %d %s", tc.field, code, out["fields"])
+		}
+	}
+}
+
+// The bench's liquid temperature becomes the new case's injection
+// temperature; transient heating is chosen only where the gas is hotter,
+// and the drops' fixed surface temperature is never set from it.
+func TestSupplyToCase(t *testing.T) {
+	for _, tc := range []struct {
+		liquid, lu, gas, gu string
+		heating             string
+	}{
+		{"20", "°C", "700", "K", "transient"},
+		{"300", "K", "26.85", "°C", ""}, // equal: no heating
+		{"80", "°C", "20", "°C", ""},
+	} {
+		q := url.Values{"liquid_temperature": {tc.liquid}, "liquid_temperature_unit": {tc.lu},
+			"gas_temperature": {tc.gas}, "gas_temperature_unit": {tc.gu}}
+		vals, us := valuesMap{"liquid_temperature": "25"}, valuesMap{}
+		supplyToCase(q, vals, us)
+		if vals["injection_temperature"] != tc.liquid || us["injection_temperature"] != tc.lu ||
+			vals["heating"] != tc.heating || vals["liquid_temperature"] != "" {
+			t.Errorf("%s %s liquid, %s %s gas: %v %v", tc.liquid, tc.lu, tc.gas, tc.gu, vals, us)
 		}
 	}
 }

@@ -1,10 +1,11 @@
 package server
 
 import (
-	"crypto/hmac"
 	"crypto/sha256"
 	"crypto/subtle"
-	"encoding/hex"
+	"fmt"
+	"math"
+	"net"
 	"net/http"
 	"net/url"
 	"strconv"
@@ -25,10 +26,78 @@ const (
 	sessionCookie = "fogbench_session"
 	authorCookie  = "author"
 	sessionTTL    = 12 * time.Hour
-	// MinTokenLen is the shortest access token main accepts.
-	MinTokenLen  = 16
+	// MinTokenBits is the least strength an access token must have, by
+	// TokenBits's estimate.
+	MinTokenBits = 128
 	maxAuthorLen = 60
 )
+
+// TokenBits estimates the strength of an access token in bits, by a rule
+// that is simple to check by hand (docs/access.md):
+//
+//	bits = min(L, 4·D) × log2(A)
+//
+// where L is the number of characters, D the number of different
+// characters, and A the size of the alphabet the characters are drawn
+// from: 16 when every character is a hexadecimal digit (0-9 with a-f, or
+// with A-F), otherwise the sum over the classes that occur of 10 (digits),
+// 26 (a-z), 26 (A-Z) and 33 (anything else: ASCII punctuation, space,
+// characters beyond ASCII). The 4·D cap counts a token that repeats few
+// characters ("aaaaaaaaaaaaaaaa", "abababab…") as short as it is weak.
+// For random tokens the estimate is close to their true strength: 24
+// random bytes in base64 (32 characters) give about 190 bits, 16 random
+// bytes in hex (32 characters) exactly 128. A token a person made up is
+// weaker than the estimate; make tokens at random.
+func TokenBits(tok string) float64 {
+	var n, digit, lower, upper, other, hexLower, hexUpper int
+	seen := map[rune]bool{}
+	for _, c := range tok {
+		n++
+		seen[c] = true
+		switch {
+		case c >= '0' && c <= '9':
+			digit++
+		case c >= 'a' && c <= 'z':
+			lower++
+			if c <= 'f' {
+				hexLower++
+			}
+		case c >= 'A' && c <= 'Z':
+			upper++
+			if c <= 'F' {
+				hexUpper++
+			}
+		default:
+			other++
+		}
+	}
+	if n == 0 {
+		return 0
+	}
+	alphabet := 0
+	switch {
+	case other == 0 && upper == 0 && lower == hexLower, other == 0 && lower == 0 && upper == hexUpper:
+		alphabet = 16
+	default:
+		for _, class := range []struct{ count, size int }{{digit, 10}, {lower, 26}, {upper, 26}, {other, 33}} {
+			if class.count > 0 {
+				alphabet += class.size
+			}
+		}
+	}
+	if alphabet < 2 {
+		return 0
+	}
+	return float64(min(n, 4*len(seen))) * math.Log2(float64(alphabet))
+}
+
+// CheckToken refuses an access token weaker than MinTokenBits.
+func CheckToken(tok string) error {
+	if b := TokenBits(tok); b < MinTokenBits {
+		return fmt.Errorf("the access token is too weak: about %.0f bits by fogbench's estimate, at least %d needed (make one with: head -c 24 /dev/urandom | base64; see docs/access.md)", math.Floor(b), MinTokenBits)
+	}
+	return nil
+}
 
 // tokenMatches compares a presented token with the configured one in
 // constant time; hashing first also hides the token's length.
@@ -38,57 +107,50 @@ func (s *Server) tokenMatches(given string) bool {
 	return subtle.ConstantTimeCompare(a[:], b[:]) == 1
 }
 
-// sessionMAC signs an expiry time with a key derived from the token, so
-// changing the token ends every session.
-func (s *Server) sessionMAC(exp int64) []byte {
-	key := sha256.Sum256([]byte("fogbench session key\x00" + s.Token))
-	m := hmac.New(sha256.New, key[:])
-	m.Write([]byte("fogbench-session-v1|" + strconv.FormatInt(exp, 10)))
-	return m.Sum(nil)
-}
-
+// newSession opens a session on the server (session.go) and returns the
+// cookie value that names it and when it ends.
 func (s *Server) newSession(now time.Time) (string, time.Time) {
 	exp := now.Add(sessionTTL)
-	return strconv.FormatInt(exp.Unix(), 10) + "." + hex.EncodeToString(s.sessionMAC(exp.Unix())), exp
+	return s.sessions.start(now, exp), exp
 }
 
 func (s *Server) validSession(v string, now time.Time) bool {
-	expRaw, macHex, ok := strings.Cut(v, ".")
-	if !ok {
-		return false
-	}
-	exp, err := strconv.ParseInt(expRaw, 10, 64)
-	if err != nil || now.Unix() >= exp {
-		return false
-	}
-	mac, err := hex.DecodeString(macHex)
-	return err == nil && hmac.Equal(mac, s.sessionMAC(exp))
-}
-
-// authenticated reports whether a request carries a valid session cookie
-// or bearer token.
-func (s *Server) authenticated(r *http.Request) bool {
-	if c, err := r.Cookie(sessionCookie); err == nil && s.validSession(c.Value, time.Now()) {
-		return true
-	}
-	if h := r.Header.Get("Authorization"); strings.HasPrefix(h, "Bearer ") {
-		return s.tokenMatches(strings.TrimPrefix(h, "Bearer "))
-	}
-	return false
+	return v != "" && s.sessions.valid(v, now)
 }
 
 // requireToken lets a request through when no token is configured (a
-// loopback-only fogbench), for the login page and static files, or when the
-// request is authenticated. Pages send the browser to /login; the API
-// answers 401.
+// loopback-only fogbench) or when it carries a live session cookie or the
+// right bearer token. Only the routes that need it are wrapped in it
+// (server.go), so what is public is the router's decision, never a test
+// of the raw path. A wrong bearer token is counted against the client
+// like a wrong token at /login (throttle.go). Pages without credentials
+// send the browser to /login; the API answers 401.
 func (s *Server) requireToken(next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
-		p := r.URL.Path
-		if s.Token == "" || p == "/login" || strings.HasPrefix(p, "/static/") || s.authenticated(r) {
+		if s.Token == "" {
 			next.ServeHTTP(w, r)
 			return
 		}
-		if strings.HasPrefix(p, "/api/") {
+		if c, err := r.Cookie(sessionCookie); err == nil && s.validSession(c.Value, time.Now()) {
+			next.ServeHTTP(w, r)
+			return
+		}
+		if given, bearer := strings.CutPrefix(r.Header.Get("Authorization"), "Bearer "); bearer {
+			if wait := s.failures.wait(clientKey(r)); wait > 0 {
+				w.Header().Set("Retry-After", retryAfter(wait))
+				writeJSON(w, http.StatusTooManyRequests, map[string]string{"error": "too many wrong access tokens from this address: try again in " + retryAfter(wait) + " s"})
+				return
+			}
+			if s.tokenMatches(given) {
+				next.ServeHTTP(w, r)
+				return
+			}
+			s.refuseToken(r, "bearer token refused")
+			w.Header().Set("WWW-Authenticate", `Bearer realm="fogbench", error="invalid_token"`)
+			writeJSON(w, http.StatusUnauthorized, map[string]string{"error": "the access token is not right"})
+			return
+		}
+		if strings.HasPrefix(r.URL.Path, "/api/") {
 			w.Header().Set("WWW-Authenticate", `Bearer realm="fogbench"`)
 			writeJSON(w, http.StatusUnauthorized, map[string]string{"error": "sign in: send the access token as Authorization: Bearer TOKEN"})
 			return
@@ -101,12 +163,54 @@ func (s *Server) requireToken(next http.Handler) http.Handler {
 	})
 }
 
-// safeNext keeps a post-login redirect on this site.
+// refuseToken counts a wrong token against the client, logs it (without
+// the token) and pauses, so that guessing is slow on every connection.
+func (s *Server) refuseToken(r *http.Request, what string) {
+	s.failures.fail(clientKey(r))
+	s.Logger.Warn(what, "client", clientIP(r))
+	if s.failDelay > 0 {
+		time.Sleep(s.failDelay)
+	}
+}
+
+// retryAfter is a wait in whole seconds, rounded up, at least 1.
+func retryAfter(d time.Duration) string {
+	return strconv.Itoa(max(1, int(math.Ceil(d.Seconds()))))
+}
+
+// safeNext keeps a post-login redirect on this site. It accepts only a
+// local path: "/" alone, or "/" followed by a character that is not "/",
+// "\\" or white space, both in the value as given (already decoded from the
+// form or query) and in it percent-decoded once more; and, in the value as
+// given, no control character, white space or backslash anywhere (browsers
+// drop tabs and newlines from a URL and read "\\" as "/", and http.Redirect
+// cleans "/x/../" away, so any of them could turn the path into "//host").
+// Anything else gives /cases.
 func safeNext(n string) string {
-	if !strings.HasPrefix(n, "/") || strings.HasPrefix(n, "//") || strings.ContainsAny(n, "\\\r\n") {
-		return "/cases"
+	const fallback = "/cases"
+	dec, err := url.PathUnescape(n)
+	if err != nil || !localStart(n) || !localStart(dec) {
+		return fallback
+	}
+	if strings.ContainsFunc(n, func(c rune) bool {
+		return c == '\\' || unicode.IsSpace(c) || unicode.IsControl(c) || c == utf8.RuneError
+	}) {
+		return fallback
 	}
 	return n
+}
+
+// localStart reports whether v is "/" or starts with "/" and a character
+// that is not "/", "\\" or white space.
+func localStart(v string) bool {
+	if v == "/" {
+		return true
+	}
+	if len(v) < 2 || v[0] != '/' {
+		return false
+	}
+	c, _ := utf8.DecodeRuneInString(v[1:])
+	return c != '/' && c != '\\' && !unicode.IsSpace(c) && !unicode.IsControl(c)
 }
 
 // cleanAuthor checks a name given for revisions.
@@ -159,11 +263,16 @@ func (s *Server) handleLoginPost(w http.ResponseWriter, r *http.Request) {
 	}
 	secure := r.TLS != nil || s.SecureCookies
 	if s.Token != "" {
+		if wait := s.failures.wait(clientKey(r)); wait > 0 {
+			w.Header().Set("Retry-After", retryAfter(wait))
+			v.Error = "Too many wrong access tokens from your address: try again in " + retryAfter(wait) + " s."
+			s.render(w, r, http.StatusTooManyRequests, v.Chrome, views.LoginPage(v))
+			return
+		}
 		if !s.tokenMatches(r.PostFormValue("token")) {
-			// A pause makes guessing slow; the token is long enough that
-			// this is a courtesy, not the defence.
-			time.Sleep(400 * time.Millisecond)
-			s.Logger.Warn("login refused", "client", clientIP(r))
+			// Counted per client and paused (throttle.go): guessing is
+			// slow; the token's strength is the defence.
+			s.refuseToken(r, "login refused")
 			v.Error = "That access token is not right."
 			s.render(w, r, http.StatusUnauthorized, v.Chrome, views.LoginPage(v))
 			return
@@ -177,8 +286,13 @@ func (s *Server) handleLoginPost(w http.ResponseWriter, r *http.Request) {
 	http.Redirect(w, r, v.Next, http.StatusSeeOther)
 }
 
-// handleLogout serves POST /logout: both cookies are cleared.
+// handleLogout serves POST /logout: the session ends on the server, so
+// its cookie no longer signs anyone in even if kept, and both cookies are
+// cleared.
 func (s *Server) handleLogout(w http.ResponseWriter, r *http.Request) {
+	if c, err := r.Cookie(sessionCookie); err == nil {
+		s.sessions.end(c.Value)
+	}
 	for _, n := range []string{sessionCookie, authorCookie} {
 		http.SetCookie(w, &http.Cookie{Name: n, Value: "", Path: "/", MaxAge: -1, HttpOnly: true,
 			SameSite: http.SameSiteStrictMode, Secure: r.TLS != nil || s.SecureCookies})
@@ -192,6 +306,18 @@ func clientIP(r *http.Request) string {
 		host = host[:i]
 	}
 	return host
+}
+
+// clientKey is the client a wrong token is counted against: its IPv4
+// address, or the /64 network of an IPv6 address (one host usually holds a
+// whole /64).
+func clientKey(r *http.Request) string {
+	host := strings.Trim(clientIP(r), "[]")
+	ip := net.ParseIP(host)
+	if ip == nil || ip.To4() != nil {
+		return host
+	}
+	return ip.Mask(net.CIDRMask(64, 128)).String() + "/64"
 }
 
 // authorFromCookie is the name the user gave at /login, or "". The cookie

@@ -93,15 +93,22 @@ func TestTokenGate(t *testing.T) {
 	if resp.StatusCode != http.StatusOK || !strings.Contains(string(body), `"author":"Ana Müller"`) {
 		t.Fatalf("bearer API call %d: %s", resp.StatusCode, body)
 	}
-	// A forged or expired session is not accepted.
-	s := &Server{Token: testToken}
-	if s.validSession("9999999999.00ff", timeNow()) || s.validSession("1."+strings.Repeat("0", 64), timeNow()) {
+	// A forged or expired session is not accepted, nor one another
+	// server (another token, or before a restart) opened.
+	s := New(nil, nil)
+	s.Token = testToken
+	if s.validSession("9999999999.00ff", timeNow()) || s.validSession(strings.Repeat("0", 64), timeNow()) || s.validSession("", timeNow()) {
 		t.Fatal("forged session accepted")
 	}
-	other := &Server{Token: "another-token-of-enough-length"}
+	other := New(nil, nil)
+	other.Token = "another-token-of-enough-length"
 	val, _ := other.newSession(timeNow())
 	if s.validSession(val, timeNow()) {
-		t.Fatal("a session made with another token was accepted")
+		t.Fatal("a session opened by another server was accepted")
+	}
+	val, exp := s.newSession(timeNow())
+	if !s.validSession(val, timeNow()) || s.validSession(val, exp) {
+		t.Fatal("a session is not valid exactly until it ends")
 	}
 }
 

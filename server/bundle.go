@@ -124,7 +124,7 @@ func (s *Server) handleExportPage(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	v := views.ExportView{Chrome: views.Chrome{Title: "Export cases", Nav: "library", Display: display(r)}, Total: n}
+	v := views.ExportView{Chrome: views.Chrome{Title: "Export cases", Nav: "sharing", Display: display(r)}, Total: n}
 	if v.Tags, err = s.tagOptions(r); err != nil {
 		s.error(w, r, err)
 		return
@@ -142,7 +142,7 @@ func (s *Server) tagOptions(r *http.Request) ([]views.Option, error) {
 }
 
 func importChrome(r *http.Request) views.Chrome {
-	return views.Chrome{Title: "Import cases", Nav: "library", Display: display(r)}
+	return views.Chrome{Title: "Import cases", Nav: "sharing", Display: display(r)}
 }
 
 // handleImportPage serves GET /bundle/import.

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"net/http"
+	"net/url"
 	"slices"
 	"strconv"
 
@@ -21,7 +22,16 @@ const pageSize = 50
 
 // handleLibrary serves GET /cases.
 func (s *Server) handleLibrary(w http.ResponseWriter, r *http.Request) {
-	q := r.URL.Query()
+	v, err := s.libraryView(r, r.URL.Query())
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	s.render(w, r, http.StatusOK, v.Chrome, views.LibraryPage(v))
+}
+
+// libraryView is the library page for the filters and page in q.
+func (s *Server) libraryView(r *http.Request, q url.Values) (views.LibraryView, error) {
 	page, _ := strconv.Atoi(q.Get("page"))
 	page = max(page, 1)
 	opts := store.ListOptions{
@@ -31,24 +41,22 @@ func (s *Server) handleLibrary(w http.ResponseWriter, r *http.Request) {
 	}
 	rows, total, err := s.Store.ListCases(r.Context(), opts)
 	if err != nil {
-		s.error(w, r, err)
-		return
+		return views.LibraryView{}, err
 	}
 	v := views.LibraryView{
-		Chrome: views.Chrome{Title: "Case library", Nav: "library", Display: display(r), Flash: q.Get("flash")},
+		Chrome: views.Chrome{Title: "Case library", Nav: "library", Display: display(r)},
 		Total:  total, Query: opts.Query, Fluid: opts.Fluid, Tag: opts.Tag, Sort: opts.Sort, Trash: opts.Trash,
 		Fluids: fluidOptions(), Page: page, Pages: (total + pageSize - 1) / pageSize,
 		Family: opts.Family, Families: familyOptions(),
 	}
 	if v.TagOptions, err = s.tagOptions(r); err != nil {
-		s.error(w, r, err)
-		return
+		return views.LibraryView{}, err
 	}
 	for _, c := range rows {
 		v.Rows = append(v.Rows, views.CaseRow{ID: c.ID, Name: c.Name, Fluid: c.Fluid, Model: modelLabel(c.Model, c.Family),
 			Revision: c.Revision, Updated: c.UpdatedAt, Tags: c.Tags})
 	}
-	s.render(w, r, http.StatusOK, v.Chrome, views.LibraryPage(v))
+	return v, nil
 }
 
 func modelLabel(model, family string) string {
@@ -101,7 +109,6 @@ func (s *Server) handleCaseShow(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	v := s.caseView(r, rec)
-	v.Flash = r.URL.Query().Get("flash")
 	s.render(w, r, http.StatusOK, v.Chrome, views.CasePage(v))
 }
 
@@ -170,12 +177,7 @@ func inputFigures(c calc.Case, d views.Display) []views.Figure {
 	if l, err := fluid.Lookup(c.Fluid); err == nil {
 		name = l.Name
 	}
-	figs := []views.Figure{{Label: "Liquid", Value: name}}
-	if c.LiquidTemperatureK != nil {
-		figs = append(figs, views.Figure{Label: "Drop temperature", Value: d.Quantity(units.Temperature, *c.LiquidTemperatureK, 5)})
-	} else {
-		figs = append(figs, views.Figure{Label: "Drop temperature", Value: "steady (solved per class)"})
-	}
+	figs := append([]views.Figure{{Label: "Liquid", Value: name}}, dropTemperatureModel(c, d)...)
 	figs = append(figs,
 		views.Figure{Label: "Gas", Value: c.Gas.ID},
 		views.Figure{Label: "Pressure", Value: d.Quantity(units.Pressure, c.Gas.PressurePa, 6)},
@@ -195,23 +197,27 @@ func inputFigures(c calc.Case, d views.Display) []views.Figure {
 	figs = append(figs, views.Figure{Label: "Drop sizes", Value: dist.Model})
 	add := func(label, v string) { figs = append(figs, views.Figure{Label: label, Value: v}) }
 	um := func(m float64) string { return views.Micro(m) + " µm" }
-	switch dist.Model {
-	case "rosin-rammler":
+	// A given D32 sizes the parametric models instead of their own scale.
+	scale := func(label string, m float64) {
 		if dist.D32M > 0 {
 			add("D32", um(dist.D32M))
 		} else {
-			add("X", um(dist.XM))
+			add(label, um(m))
 		}
+	}
+	switch dist.Model {
+	case "rosin-rammler":
+		scale("X", dist.XM)
 		add("q", views.Num(dist.Q, 4))
 	case "log-normal":
-		add("Median ("+dist.Basis+")", um(dist.MedianM))
+		scale("Median ("+dist.Basis+")", dist.MedianM)
 		add("σg", views.Num(dist.GSD, 4))
 	case "upper-limit":
 		add("Largest drop", um(dist.DUpperM))
-		add("Dv50", um(dist.Dv50M))
+		scale("Dv50", dist.Dv50M)
 		add("δ", views.Num(dist.Delta, 4))
 	case "nukiyama-tanasawa":
-		add("Scale b^(−1/q)", um(dist.ScaleM))
+		scale("Scale b^(−1/q)", dist.ScaleM)
 		add("p", views.Num(dist.P, 4))
 		add("q", views.Num(dist.QNT, 4))
 	case "bins":
@@ -236,7 +242,73 @@ func inputFigures(c calc.Case, d views.Display) []views.Figure {
 		}
 		add("Classes", fmt.Sprintf("%d, %s", n, rng))
 	}
-	return figs
+	return append(figs, evaporationModel(c, d)...)
+}
+
+// dropTemperatureModel states how the drop temperature was computed: fixed,
+// steady per class, or transient from the injection temperature (then also
+// the temperature of the size-class table, which is fixed or steady).
+func dropTemperatureModel(c calc.Case, d views.Display) []views.Figure {
+	fixed := "steady (solved per class)"
+	if c.LiquidTemperatureK != nil {
+		fixed = "fixed at " + d.Quantity(units.Temperature, *c.LiquidTemperatureK, 5)
+	}
+	if c.Heating != "transient" {
+		return []views.Figure{{Label: "Drop temperature", Value: fixed}}
+	}
+	inj := "the injection temperature"
+	if c.InjectionTemperatureK != nil {
+		inj = d.Quantity(units.Temperature, *c.InjectionTemperatureK, 5)
+	}
+	return []views.Figure{
+		{Label: "Drop temperature", Value: "transient from " + inj + " at injection"},
+		{Label: "Size-class table at", Value: fixed},
+	}
+}
+
+// convectionNames are the case file's convection models as the form and
+// the reports name them.
+var convectionNames = map[string]string{
+	"":                   "Ranz–Marshall (1952)",
+	"ranz-marshall":      "Ranz–Marshall (1952)",
+	"frossling":          "Frössling (1938)",
+	"abramzon-sirignano": "Abramzon–Sirignano film theory (1989)",
+	"none":               "none (stagnant)",
+}
+
+// evaporationModel lists the evaporation options the results were computed
+// with, defaults included, so a page or report never leaves them implicit.
+func evaporationModel(c calc.Case, d views.Display) []views.Figure {
+	e := c.Evaporation
+	conv, ok := convectionNames[e.Convection]
+	if !ok {
+		conv = e.Convection
+	}
+	alpha := "1 (default)"
+	if e.AccommodationCoef > 0 {
+		alpha = views.Num(e.AccommodationCoef, 4)
+	}
+	transition := "Fuchs–Sutugin, on"
+	if e.NoTransition {
+		transition = "off (continuum for every size)"
+		alpha += ", not used"
+	}
+	figs := []views.Figure{
+		{Label: "Convection", Value: conv},
+		{Label: "Transition correction", Value: transition},
+		{Label: "Accommodation coefficient α", Value: alpha},
+	}
+	if e.MassFlowKgS > 0 {
+		figs = append(figs, views.Figure{Label: "Liquid flow", Value: d.Quantity(units.MassFlow, e.MassFlowKgS, 4)})
+	}
+	if e.SprayVelocityMS > 0 {
+		figs = append(figs, views.Figure{Label: "Spray velocity", Value: d.Quantity(units.Velocity, e.SprayVelocityMS, 4)})
+	}
+	end := "when 99 % has evaporated"
+	if e.MaxTimeS > 0 {
+		end = "at " + d.Quantity(units.Time, e.MaxTimeS, 4)
+	}
+	return append(figs, views.Figure{Label: "History ends", Value: end})
 }
 
 // formView builds the form page from values.
@@ -273,7 +345,7 @@ func isFormInput(name string) bool {
 	}
 	switch name {
 	case "name", "notes", "fluid", "gas", "vapor", "model", "bins", "spacing", "edges", "fractions",
-		"ln_basis", "bins_basis", "convection", "mass_flow":
+		"ln_basis", "bins_basis", "convection", "mass_flow", "heating", "transition":
 		return true
 	}
 	for _, f := range numberFields {
@@ -298,6 +370,15 @@ func (s *Server) readCaseForm(r *http.Request) (calc.Case, caseForm, valid.Error
 		return calc.Case{}, caseForm{}, nil, err
 	}
 	c, cf := parseCaseForm(r.PostForm)
+	if len(cf.Errors) == 0 {
+		if base, ok := s.formBase(r); ok {
+			merged, err := keepUnchanged(base, c, display(r))
+			if err != nil {
+				return c, cf, nil, err
+			}
+			c = merged
+		}
+	}
 	s.embedCustomFluid(r.Context(), &c)
 	errs := cf.Errors
 	if len(errs) == 0 {
@@ -312,6 +393,27 @@ func (s *Server) readCaseForm(r *http.Request) (calc.Case, caseForm, valid.Error
 		}
 	}
 	return c, cf, errs, nil
+}
+
+// formBase is the stored revision a submitted case form was opened from
+// (the case of the route, else the form's case_id, and its revision field),
+// so that keepUnchanged can carry what the user did not change. A new case,
+// or a revision the library does not hold, has none.
+func (s *Server) formBase(r *http.Request) (calc.Case, bool) {
+	raw := chi.URLParam(r, "id")
+	if raw == "" {
+		raw = r.PostForm.Get("case_id")
+	}
+	id, _ := strconv.ParseInt(raw, 10, 64)
+	rev, _ := strconv.Atoi(r.PostForm.Get("revision"))
+	if id <= 0 || rev <= 0 {
+		return calc.Case{}, false
+	}
+	old, err := s.Store.GetRevision(r.Context(), id, rev)
+	if err != nil {
+		return calc.Case{}, false
+	}
+	return old.Case, true
 }
 
 // handleCaseCreate serves POST /cases.
@@ -331,7 +433,7 @@ func (s *Server) handleCaseCreate(w http.ResponseWriter, r *http.Request) {
 		s.caseSaveFailed(w, r, err, s.formView(r, "New case", "/cases", 0, 0, cf.Values, cf.Units, nil, c.Distribution.Model))
 		return
 	}
-	http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved", rec.ID), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), "Saved")
 }
 
 // handleCaseEdit serves GET /cases/{id}/edit.
@@ -373,7 +475,7 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 			s.caseSaveFailed(w, r, err, s.formView(r, "Edit "+c.Name, action, id, base, cf.Values, cf.Units, nil, c.Distribution.Model))
 			return
 		}
-		http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved+as+a+new+case", rec.ID), http.StatusSeeOther)
+		s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), "Saved as a new case")
 		return
 	}
 	rec, err := s.Store.UpdateCase(r.Context(), id, base, c, s.author(r))
@@ -386,7 +488,7 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 		s.caseSaveFailed(w, r, err, s.formView(r, "Edit "+c.Name, action, id, base, cf.Values, cf.Units, nil, c.Distribution.Model))
 		return
 	}
-	http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=Saved+revision+%d", rec.ID, rec.Revision), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), fmt.Sprintf("Saved revision %d", rec.Revision))
 }
 
 // handleCaseDuplicate serves POST /cases/{id}/duplicate.

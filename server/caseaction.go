@@ -5,9 +5,11 @@ import (
 	"fmt"
 	"net/http"
 	"net/url"
+	"slices"
 	"strconv"
 	"strings"
 
+	"fogbench/calc"
 	"fogbench/calc/atomize"
 	"fogbench/store"
 	"fogbench/views"
@@ -17,19 +19,10 @@ import (
 // when that is a library URL, else the case.
 func backTo(r *http.Request, id int64) string {
 	b := r.PostFormValue("back")
-	if strings.HasPrefix(b, "/cases") && !strings.HasPrefix(b, "//") && !strings.ContainsAny(b, "\\\r\n") {
+	if strings.HasPrefix(b, "/cases") && safeNext(b) == b {
 		return b
 	}
 	return fmt.Sprintf("/cases/%d", id)
-}
-
-// withFlash adds a one-line notice to a local URL.
-func withFlash(u, msg string) string {
-	sep := "?"
-	if strings.Contains(u, "?") {
-		sep = "&"
-	}
-	return u + sep + "flash=" + url.QueryEscape(msg)
 }
 
 // handleCaseRename serves POST /cases/{id}/rename: a new revision with the
@@ -44,14 +37,18 @@ func (s *Server) handleCaseRename(w http.ResponseWriter, r *http.Request) {
 	rec, err := s.Store.RenameCase(r.Context(), id, base, r.PostFormValue("name"), s.author(r))
 	var ce *store.ConflictError
 	if errors.As(err, &ce) {
-		http.Redirect(w, r, withFlash(backTo(r, id), ce.Error()+"; not renamed, look again"), http.StatusSeeOther)
+		s.redirectWithFlash(w, r, backTo(r, id), ce.Error()+"; not renamed, look again")
+		return
+	}
+	if fes := calc.FieldErrors(err); len(fes) == 1 && fes[0].Field == "name" {
+		s.refuseRowInput(w, r, id, "name", r.PostFormValue("name"), err)
 		return
 	}
 	if err != nil {
 		s.error(w, r, err)
 		return
 	}
-	http.Redirect(w, r, withFlash(backTo(r, id), fmt.Sprintf("Case %d renamed to %q (revision %d)", id, rec.Case.Name, rec.Revision)), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, backTo(r, id), fmt.Sprintf("Case %d renamed to %q (revision %d)", id, rec.Case.Name, rec.Revision))
 }
 
 // handleCaseTags serves POST /cases/{id}/tags with tags separated by commas.
@@ -61,12 +58,46 @@ func (s *Server) handleCaseTags(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	tags := store.NormalizeTags(strings.Split(r.PostFormValue("tags"), ","))
+	// Refused before the store is touched: too many tags, or one too long
+	// or not plain text, is a 400 that says which (nothing is dropped).
+	tags, err := store.CheckTags(strings.Split(r.PostFormValue("tags"), ","))
+	if err != nil {
+		s.refuseRowInput(w, r, id, "tags", r.PostFormValue("tags"), err)
+		return
+	}
 	if err := s.Store.SetTags(r.Context(), id, tags); err != nil {
 		s.error(w, r, err)
 		return
 	}
-	http.Redirect(w, r, withFlash(backTo(r, id), fmt.Sprintf("Case %d tagged: %s", id, strings.Join(tags, ", "))), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, backTo(r, id), fmt.Sprintf("Case %d tagged: %s", id, strings.Join(tags, ", ")))
+}
+
+// refuseRowInput answers a refused rename or tags of a library row with
+// 400 and the library page it came from, that row's actions open with what
+// was typed and the message beside the field; nothing was saved.
+func (s *Server) refuseRowInput(w http.ResponseWriter, r *http.Request, id int64, field, typed string, err error) {
+	var q url.Values
+	if u, perr := url.Parse(backTo(r, id)); perr == nil && u.Path == "/cases" {
+		q = u.Query()
+	}
+	v, verr := s.libraryView(r, q)
+	if verr != nil {
+		s.error(w, r, verr)
+		return
+	}
+	if !slices.ContainsFunc(v.Rows, func(row views.CaseRow) bool { return row.ID == id }) {
+		s.error(w, r, err) // not on that page: the message alone
+		return
+	}
+	msg := calc.ErrorMessage(err)
+	if fes := calc.FieldErrors(err); len(fes) > 0 {
+		msg = fes[0].Message
+		if fes[0].Value != "" {
+			msg += " (got " + fes[0].Value + ")"
+		}
+	}
+	v.Refused = &views.RowInput{ID: id, Field: field, Value: typed, Message: msg + "; nothing was saved."}
+	s.render(w, r, http.StatusBadRequest, v.Chrome, views.LibraryPage(v))
 }
 
 // handleCaseTrash serves POST /cases/{id}/trash.
@@ -84,7 +115,7 @@ func (s *Server) handleCaseTrash(w http.ResponseWriter, r *http.Request) {
 	if back == fmt.Sprintf("/cases/%d", id) {
 		back = "/cases"
 	}
-	http.Redirect(w, r, withFlash(back, fmt.Sprintf("Case %d moved to the trash; restore it from the trash list", id)), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, back, fmt.Sprintf("Case %d moved to the trash; restore it from the trash list", id))
 }
 
 // handleCaseRestore serves POST /cases/{id}/restore: out of the trash.
@@ -98,7 +129,7 @@ func (s *Server) handleCaseRestore(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	http.Redirect(w, r, withFlash(backTo(r, id), fmt.Sprintf("Case %d restored from the trash", id)), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, backTo(r, id), fmt.Sprintf("Case %d restored from the trash", id))
 }
 
 // familyOptions lists the atomizer families for the library filter.

@@ -12,6 +12,7 @@ import (
 	"fogbench/calc/fluid"
 	"fogbench/calc/units"
 	"fogbench/calc/valid"
+	"fogbench/store"
 	"fogbench/views"
 )
 
@@ -28,10 +29,14 @@ type formField struct {
 
 var numberFields = []formField{
 	{name: "liquid_temperature", path: "liquid_temperature_k", kind: units.Temperature, opt: func(c *calc.Case) **float64 { return &c.LiquidTemperatureK }},
+	{name: "injection_temperature", path: "injection_temperature_k", kind: units.Temperature, opt: func(c *calc.Case) **float64 { return &c.InjectionTemperatureK }},
 	{name: "pressure", path: "gas.pressure_pa", kind: units.Pressure, ref: func(c *calc.Case) *float64 { return &c.Gas.PressurePa }},
 	{name: "gas_temperature", path: "gas.temperature_k", kind: units.Temperature, ref: func(c *calc.Case) *float64 { return &c.Gas.TemperatureK }},
 	{name: "relative_velocity", path: "gas.relative_velocity_m_s", kind: units.Velocity, ref: func(c *calc.Case) *float64 { return &c.Gas.RelativeVelocityMS }},
 	{name: "spray_velocity", path: "evaporation.spray_velocity_m_s", kind: units.Velocity, ref: func(c *calc.Case) *float64 { return &c.Evaporation.SprayVelocityMS }},
+	{name: "accommodation", path: "evaporation.accommodation_coefficient", ref: func(c *calc.Case) *float64 { return &c.Evaporation.AccommodationCoef }},
+	{name: "max_time", path: "evaporation.max_time_s", kind: units.Time, ref: func(c *calc.Case) *float64 { return &c.Evaporation.MaxTimeS }},
+	{name: "d32", path: "distribution.d32_m", kind: units.Length, ref: func(c *calc.Case) *float64 { return &c.Distribution.D32M }},
 	{name: "x", path: "distribution.x_m", kind: units.Length, ref: func(c *calc.Case) *float64 { return &c.Distribution.XM }},
 	{name: "q", path: "distribution.q", ref: func(c *calc.Case) *float64 { return &c.Distribution.Q }},
 	{name: "median", path: "distribution.median_m", kind: units.Length, ref: func(c *calc.Case) *float64 { return &c.Distribution.MedianM }},
@@ -60,9 +65,9 @@ var pathToForm = map[string]string{
 	"distribution.edges_m":          "edges",
 	"distribution.fraction":         "fractions",
 	"evaporation.convection":        "convection",
+	"evaporation.no_transition":     "transition",
 	"evaporation.mass_flow_kg_s":    "mass_flow",
-	"heating":                       "liquid_temperature",
-	"injection_temperature_k":       "liquid_temperature",
+	"heating":                       "heating",
 	"custom_fluid":                  "fluid",
 }
 
@@ -159,17 +164,25 @@ func parseCaseForm(form url.Values) (calc.Case, caseForm) {
 	mark := func(name, msg string) {
 		cf.Errors = append(cf.Errors, &valid.FieldError{Field: name, Message: msg})
 	}
+	// Browsers submit a textarea's line breaks as CRLF; the case keeps LF.
+	lf := strings.NewReplacer("\r\n", "\n", "\r", "\n")
 	c := calc.Case{
 		Format: calc.CaseFormat,
 		Name:   strings.TrimSpace(cf.Values["name"]),
-		Notes:  strings.TrimSpace(cf.Values["notes"]),
+		Notes:  strings.TrimSpace(lf.Replace(cf.Values["notes"])),
 		Fluid:  cf.Values["fluid"],
 		Gas:    calc.Gas{ID: cf.Values["gas"]},
 		Distribution: calc.Distribution{
 			Model:   cf.Values["model"],
 			Spacing: cf.Values["spacing"],
 		},
-		Evaporation: calc.Evaporation{Convection: cf.Values["convection"]},
+		Evaporation: calc.Evaporation{Convection: cf.Values["convection"], NoTransition: cf.Values["transition"] == "off"},
+	}
+	if cf.Values["heating"] == "transient" {
+		c.Heating = "transient"
+	}
+	if cf.Values["heating"] == "transient" {
+		c.Heating = "transient"
 	}
 	if raw := cf.Values["custom_fluid_json"]; raw != "" {
 		// The liquid a case defines itself travels through the form as JSON.
@@ -309,6 +322,16 @@ func fillForm(c calc.Case, d views.Display) (valuesMap, valuesMap) {
 	vals := valuesMap{
 		"name": c.Name, "notes": c.Notes, "fluid": c.Fluid, "gas": c.Gas.ID,
 		"model": c.Distribution.Model, "spacing": c.Distribution.Spacing, "convection": c.Evaporation.Convection,
+		"transition": "on",
+	}
+	if c.Heating == "transient" {
+		vals["heating"] = "transient"
+	}
+	if c.Evaporation.NoTransition {
+		vals["transition"] = "off"
+	}
+	if c.Heating == "transient" {
+		vals["heating"] = "transient"
 	}
 	us := valuesMap{}
 	if vals["convection"] == "" {
@@ -381,4 +404,31 @@ func newCaseDefaults() calc.Case {
 		Distribution: calc.Distribution{Model: "rosin-rammler", XM: 50e-6, Q: 2.5, Bins: 40,
 			DMinM: 1e-6, DMaxM: 300e-6, Spacing: "log", Basis: "volume"},
 	}
+}
+
+// keepUnchanged carries into a submitted case every field the user did not
+// change on the form, exactly as the stored revision the form was opened
+// from (base) has it. The form shows numbers rounded to eight digits in the
+// display units and leaves out what it cannot show, so a case read from the
+// form alone would lose digits and fields on every save. Here the base case
+// is shown and read back as an untouched form would be (ancestor); each
+// field where the submitted case equals the ancestor keeps the base value,
+// and each field the user changed takes the form's value: the same
+// three-way merge, on the canonical case file, that re-applies a change to
+// a newer revision (store.ReapplyChanges).
+func keepUnchanged(base, submitted calc.Case, d views.Display) (calc.Case, error) {
+	vals, us := fillForm(base, d)
+	form := url.Values{}
+	for k, v := range vals {
+		form.Set(k, v)
+	}
+	for k, u := range us {
+		form.Set(k+"_unit", u)
+	}
+	ancestor, _ := parseCaseForm(form)
+	merged, _, err := store.ReapplyChanges(ancestor, submitted, base)
+	if err != nil {
+		return submitted, err
+	}
+	return merged, nil
 }

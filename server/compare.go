@@ -187,7 +187,7 @@ func resultRows(cs []views.CompareCase, d views.Display) []views.CompareRow {
 		{"90 % of volume below", "Dv90", "µm", val(func(r *calc.Result) float64 { return r.Summary.Dv90M * 1e6 })},
 		{"Relative span", "(Dv90−Dv10)/Dv50", "", val(func(r *calc.Result) float64 { return r.Summary.Span })},
 		{"De Brouckere mean", "D43", "µm", val(func(r *calc.Result) float64 { return r.Summary.D43M * 1e6 })},
-		{"Arithmetic mean", "D10", "µm", val(func(r *calc.Result) float64 { return r.Summary.D10M * 1e6 })},
+		{"Arithmetic mean", "D10", "µm", opt(func(r *calc.Result) *float64 { return r.Summary.D10M }, 1e6)},
 		{"50 % of mass evaporated", "t50", tu.Symbol, opt(func(r *calc.Result) *float64 { return r.Summary.T50S }, tu.FromSI(1))},
 		{"90 % evaporated", "t90", tu.Symbol, opt(func(r *calc.Result) *float64 { return r.Summary.T90S }, tu.FromSI(1))},
 		{"99 % evaporated", "t99", tu.Symbol, opt(func(r *calc.Result) *float64 { return r.Summary.T99S }, tu.FromSI(1))},

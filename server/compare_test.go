@@ -176,8 +176,8 @@ func TestCompareSummaryCSV(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		if recs[1+i][0] != fmt.Sprint(id) || recs[1+i][6] != csvNum(res.Summary.D32M*1e6) {
-			t.Errorf("row %d: case %q D32 %q, want %d and %s", i+1, recs[1+i][0], recs[1+i][6], id, csvNum(res.Summary.D32M*1e6))
+		if recs[1+i][0] != fmt.Sprint(id) || recs[1+i][6] != csvNum(res.Summary.D32M*1e6).s {
+			t.Errorf("row %d: case %q D32 %q, want %d and %s", i+1, recs[1+i][0], recs[1+i][6], id, csvNum(res.Summary.D32M*1e6).s)
 		}
 	}
 	for _, bad := range []string{"ids=1", "ids=1,x", fmt.Sprintf("ids=%d,999999", ids[0])} {

@@ -179,7 +179,7 @@ func (s *Server) handleFluids(w http.ResponseWriter, r *http.Request) {
 	}
 	tk, input, unit, msg := tableTemperature(r.URL.Query())
 	v := views.FluidsView{
-		Chrome:    views.Chrome{Title: "Liquids", Nav: "fluids", Display: display(r), Flash: r.URL.Query().Get("flash")},
+		Chrome:    views.Chrome{Title: "Liquids", Nav: "fluids", Display: display(r)},
 		TempInput: input, TempUnit: unit, TempError: msg, TK: tk,
 	}
 	for _, l := range ls {
@@ -199,7 +199,7 @@ func (s *Server) handleFluidShow(w http.ResponseWriter, r *http.Request) {
 	tk, input, unit, msg := tableTemperature(r.URL.Query())
 	d := display(r)
 	v := views.FluidView{
-		Chrome: views.Chrome{Title: l.Name, Nav: "fluids", Display: d, Flash: r.URL.Query().Get("flash")},
+		Chrome: views.Chrome{Title: l.Name, Nav: "fluids", Display: d},
 		Liquid: fluidRow(l, rec != nil, tk), CAS: l.CAS, Constants: views.ConstantFigures(l, d),
 		TempInput: input, TempUnit: unit, TempError: msg, TK: tk, Sources: l.Sources(),
 		Plots: s.drawPlots(liquidCharts(l, d)),
@@ -428,7 +428,7 @@ func (s *Server) handleLiquidCreate(w http.ResponseWriter, r *http.Request) {
 		s.render(w, r, status, f.Chrome, views.CustomLiquidFormPage(f))
 		return
 	}
-	http.Redirect(w, r, "/fluids/"+url.PathEscape(spec.ID)+"?flash=Saved", http.StatusSeeOther)
+	s.redirectWithFlash(w, r, "/fluids/"+url.PathEscape(spec.ID), "Saved")
 }
 
 // handleLiquidEdit serves GET /fluids/custom/{id}/edit.
@@ -477,7 +477,7 @@ func (s *Server) handleLiquidUpdate(w http.ResponseWriter, r *http.Request) {
 		s.render(w, r, status, f.Chrome, views.CustomLiquidFormPage(f))
 		return
 	}
-	http.Redirect(w, r, "/fluids/"+url.PathEscape(id)+"?flash=Saved", http.StatusSeeOther)
+	s.redirectWithFlash(w, r, "/fluids/"+url.PathEscape(id), "Saved")
 }
 
 // handleLiquidDelete serves POST /fluids/custom/{id}/delete.
@@ -487,7 +487,7 @@ func (s *Server) handleLiquidDelete(w http.ResponseWriter, r *http.Request) {
 		s.error(w, r, err)
 		return
 	}
-	http.Redirect(w, r, "/fluids?flash="+url.QueryEscape("Deleted "+id+"; cases that used it keep their own copy"), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, "/fluids", "Deleted "+id+"; cases that used it keep their own copy")
 }
 
 // fluidJSON is one liquid in the API list.

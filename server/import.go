@@ -140,7 +140,7 @@ func (s *Server) handleCaseImport(w http.ResponseWriter, r *http.Request) {
 	case step == "apply":
 		b, err := carriedBins(carry)
 		if err != nil {
-			iv.Error, status = err.Error(), http.StatusUnprocessableEntity
+			iv.Error, status = calc.ErrorMessage(err), http.StatusUnprocessableEntity
 			break
 		}
 		vals["model"], vals["bins_basis"] = "bins", carry.Basis
@@ -153,7 +153,7 @@ func (s *Server) handleCaseImport(w http.ResponseWriter, r *http.Request) {
 		iv.Carry = carry
 		b, err := fitSource(carry, vals, us)
 		if err != nil {
-			iv.FitError, status = err.Error(), http.StatusUnprocessableEntity
+			iv.FitError, status = calc.ErrorMessage(err), http.StatusUnprocessableEntity
 			break
 		}
 		iv.Fits = fitRows(b)
@@ -162,7 +162,7 @@ func (s *Server) handleCaseImport(w http.ResponseWriter, r *http.Request) {
 		family := strings.TrimPrefix(step, "use:")
 		b, err := fitSource(carry, vals, us)
 		if err != nil {
-			iv.FitError, status = err.Error(), http.StatusUnprocessableEntity
+			iv.FitError, status = calc.ErrorMessage(err), http.StatusUnprocessableEntity
 			break
 		}
 		fit, err := sizedist.Fit(b, family)
@@ -274,22 +274,22 @@ func joinScaled(xs []float64, k float64) string {
 // carriedBins rebuilds the classes read from a file from the hidden fields.
 func carriedBins(c views.ImportCarry) (*sizedist.Binned, error) {
 	if c.Edges == "" || c.Fractions == "" {
-		return nil, errors.New("Read a file first: there are no imported classes to apply.")
+		return nil, calc.Errorf(calc.Invalid, "Read a file first: there are no imported classes to apply.")
 	}
 	edges, err := parseList(c.Edges)
 	if err != nil {
-		return nil, fmt.Errorf("The imported class edges were damaged: %v. Read the file again.", err)
+		return nil, calc.Errorf(calc.Invalid, "The imported class edges were damaged: %v. Read the file again.", err)
 	}
 	for i := range edges {
 		edges[i] *= 1e-6
 	}
 	fr, err := parseList(c.Fractions)
 	if err != nil {
-		return nil, fmt.Errorf("The imported shares were damaged: %v. Read the file again.", err)
+		return nil, calc.Errorf(calc.Invalid, "The imported shares were damaged: %v. Read the file again.", err)
 	}
 	b, err := sizedist.FromFractions(edges, fr, sizedist.Basis(c.Basis))
 	if err != nil {
-		return nil, fmt.Errorf("The imported classes are not usable: %s.", calc.ErrorMessage(err))
+		return nil, calc.Errorf(calc.Invalid, "The imported classes are not usable: %s.", calc.ErrorMessage(err))
 	}
 	return b, nil
 }
@@ -301,7 +301,7 @@ func fitSource(c views.ImportCarry, vals, us map[string]string) (*sizedist.Binne
 		return carriedBins(c)
 	}
 	if vals["model"] != "bins" {
-		return nil, errors.New("There are no measured classes to fit: read a file, or choose measured classes and type them.")
+		return nil, calc.Errorf(calc.Invalid, "There are no measured classes to fit: read a file, or choose measured classes and type them.")
 	}
 	// Only the classes are read; the name is set so its absence is not an
 	// error here.
@@ -311,12 +311,12 @@ func fitSource(c views.ImportCarry, vals, us map[string]string) (*sizedist.Binne
 	})
 	if len(cf.Errors) > 0 {
 		e := cf.Errors[0]
-		return nil, fmt.Errorf("The typed classes cannot be fitted: %s: %s.", e.Field, e.Message)
+		return nil, calc.Errorf(calc.Invalid, "The typed classes cannot be fitted: %s: %s.", e.Field, e.Message)
 	}
 	d := typed.Distribution
 	b, err := sizedist.FromFractions(d.EdgesM, d.Fraction, sizedist.Basis(d.Basis))
 	if err != nil {
-		return nil, fmt.Errorf("The typed classes cannot be fitted: %s.", calc.ErrorMessage(err))
+		return nil, calc.Errorf(calc.Invalid, "The typed classes cannot be fitted: %s.", calc.ErrorMessage(err))
 	}
 	return b, nil
 }
@@ -388,6 +388,9 @@ func fitRows(b *sizedist.Binned) []views.FitRow {
 func useFit(vals, us map[string]string, fit sizedist.FitResult, b *sizedist.Binned) {
 	show := func(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
 	vals["model"] = fit.Family
+	// The fit gives the model's own parameters; a D32 left on the form
+	// would size the model instead of them.
+	delete(vals, "d32")
 	p := formParams(fit)
 	for _, fp := range fitParams[fit.Family] {
 		v := p[fp.key]

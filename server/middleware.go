@@ -120,9 +120,15 @@ func limitText(err error) string {
 }
 
 // cacheStatic lets browsers keep the embedded assets for a day; embed.FS has
-// no modification times to revalidate against.
+// no modification times to revalidate against. It serves files only: a
+// directory (a path that ends in "/", after the prefix is stripped) is
+// not listed.
 func cacheStatic(next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		if r.URL.Path == "" || strings.HasSuffix(r.URL.Path, "/") {
+			http.NotFound(w, r)
+			return
+		}
 		w.Header().Set("Cache-Control", "public, max-age=86400")
 		next.ServeHTTP(w, r)
 	})

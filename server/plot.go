@@ -390,7 +390,7 @@ func curvatureChart(r *calc.Result) chart {
 		YLabel: "ratio − 1 (–)",
 		LogX:   true, LogY: true,
 		Series: []series{
-			{Name: "vapor pressure p(r)/p_sat − 1", X: d, Y: kr},
+			{Name: "vapor pressure p(r)/p_flat − 1 (Kelvin)", X: d, Y: kr},
 			{Name: "evaporation rate enhancement − 1", X: d, Y: en, Dashed: true},
 		},
 	}

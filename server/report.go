@@ -3,7 +3,6 @@ package server
 import (
 	"bytes"
 	"context"
-	"encoding/csv"
 	"fmt"
 	"io"
 	"net/http"
@@ -110,26 +109,6 @@ func attachment(rec store.CaseRecord, what, ext string) string {
 	return fmt.Sprintf(`attachment; filename="%s-%s.%s"`, name, what, ext)
 }
 
-// csvText guards a text cell against spreadsheet formulas: a leading =, +,
-// - or @ gets an apostrophe.
-func csvText(s string) string {
-	if s != "" && strings.ContainsRune("=+-@", rune(s[0])) {
-		return "'" + s
-	}
-	return s
-}
-
-// csvNum writes a number at full precision; an absent value is an empty
-// cell.
-func csvNum(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
-
-func csvOpt(p *float64, scale float64) string {
-	if p == nil {
-		return ""
-	}
-	return csvNum(*p * scale)
-}
-
 // binsCSVHeader names each per-class column with its unit in parentheses.
 var binsCSVHeader = []string{
 	"d_lo (um)", "d_hi (um)", "d (um)", "number_fraction (-)", "volume_fraction (-)",
@@ -139,17 +118,15 @@ var binsCSVHeader = []string{
 
 // writeBinsCSV writes one row per size class at full precision.
 func writeBinsCSV(w io.Writer, res *calc.Result) error {
-	cw := csv.NewWriter(w)
-	cw.Write(binsCSVHeader)
+	rows := [][]csvCell{textCells(binsCSVHeader)}
 	for _, b := range res.Bins {
-		cw.Write([]string{
+		rows = append(rows, []csvCell{
 			csvNum(b.DLoM * 1e6), csvNum(b.DHiM * 1e6), csvNum(b.DM * 1e6), csvNum(b.NumberFraction), csvNum(b.VolumeFraction),
 			csvNum(b.LaplacePa), csvNum(b.VaporPressurePa), csvNum(b.KelvinRatio), csvNum(b.EvaporationEnhancement),
-			csvOpt(b.LifetimeS, 1), csvNum(b.SurfaceTemperatureK), csvNum(b.Knudsen), b.Regime, csvNum(b.EvaporationRateKgS),
+			csvOpt(b.LifetimeS, 1), csvNum(b.SurfaceTemperatureK), csvNum(b.Knudsen), textCell(b.Regime), csvNum(b.EvaporationRateKgS),
 		})
 	}
-	cw.Flush()
-	return cw.Error()
+	return writeCSVRows(w, rows...)
 }
 
 // summaryCSVHeader: one row per case, so that several cases stack.
@@ -159,22 +136,67 @@ var summaryCSVHeader = []string{
 	"t50 (s)", "t90 (s)", "t99 (s)", "drops_per_second (1/s)",
 	"kelvin_length (nm)", "d_laplace_1atm (um)", "d_enhancement_1pct (um)", "d_enhancement_10pct (um)", "kelvin_critical_diameter (um)",
 	"reference_temperature (K)", "warnings",
+	"drop_temperature_model", "liquid_temperature (K)", "injection_temperature (K)",
+	"convection", "transition_correction", "accommodation_coefficient (-)",
+	"atomizer_correlation", "atomizer_source", "atomizer_status",
 }
 
-func summaryCSVRow(rec store.CaseRecord, res *calc.Result) []string {
+// modelCSVCells are the model columns of a summary row: how the drop
+// temperature was computed and the evaporation options, defaults spelt out.
+func modelCSVCells(c calc.Case) []csvCell {
+	tmodel := "steady"
+	if c.LiquidTemperatureK != nil {
+		tmodel = "fixed"
+	}
+	inj := csvCell{}
+	if c.Heating == "transient" {
+		tmodel = "transient"
+		inj = csvOpt(c.InjectionTemperatureK, 1)
+	}
+	e := c.Evaporation
+	conv := e.Convection
+	if conv == "" {
+		conv = "ranz-marshall"
+	}
+	transition := "fuchs-sutugin"
+	if e.NoTransition {
+		transition = "off"
+	}
+	alpha := e.AccommodationCoef
+	if alpha == 0 {
+		alpha = 1
+	}
+	return []csvCell{textCell(tmodel), csvOpt(c.LiquidTemperatureK, 1), inj, textCell(conv), textCell(transition), csvNum(alpha)}
+}
+
+func summaryCSVRow(rec store.CaseRecord, res *calc.Result) []csvCell {
 	s, c := res.Summary, res.Curvature
-	crit := ""
+	crit := csvCell{}
 	if c.KelvinCriticalRadiusM != nil {
 		crit = csvNum(2 * *c.KelvinCriticalRadiusM * 1e6)
 	}
-	return []string{
-		strconv.FormatInt(rec.ID, 10), strconv.Itoa(rec.Revision), csvText(rec.Case.Name),
-		csvNum(s.D10M * 1e6), csvNum(s.D20M * 1e6), csvNum(s.D30M * 1e6), csvNum(s.D32M * 1e6), csvNum(s.D43M * 1e6),
+	row := []csvCell{
+		csvInt(rec.ID), csvInt(int64(rec.Revision)), textCell(rec.Case.Name),
+		csvOpt(s.D10M, 1e6), csvOpt(s.D20M, 1e6), csvOpt(s.D30M, 1e6), csvNum(s.D32M * 1e6), csvNum(s.D43M * 1e6),
 		csvNum(s.Dv10M * 1e6), csvNum(s.Dv50M * 1e6), csvNum(s.Dv90M * 1e6), csvNum(s.RelativeSpan),
 		csvOpt(s.T50S, 1), csvOpt(s.T90S, 1), csvOpt(s.T99S, 1), csvOpt(s.DropsPerSecond, 1),
 		csvNum(c.KelvinLengthM * 1e9), csvNum(c.LaplaceOneAtmDM * 1e6), csvOpt(c.Enhancement1PctDM, 1e6), csvOpt(c.Enhancement10PctDM, 1e6), crit,
-		csvNum(c.ReferenceTemperatureK), strconv.Itoa(len(res.Warnings)),
+		csvNum(c.ReferenceTemperatureK), csvInt(int64(len(res.Warnings))),
 	}
+	row = append(row, modelCSVCells(rec.Case)...)
+	return append(row, atomizerCSVCells(res)...)
+}
+
+// atomizerCSVCells are the correlation that sized the drops, its published
+// citation and its status from the correlation's provenance record; empty
+// when the drop sizes do not come from a nozzle.
+func atomizerCSVCells(res *calc.Result) []csvCell {
+	a := res.Atomizer
+	if a == nil || len(a.SMD) == 0 {
+		return textCells([]string{"", "", ""})
+	}
+	e := a.SMD[0] // the chosen correlation comes first
+	return textCells([]string{e.Correlation, e.Provenance.Citation.String(), e.Provenance.Status})
 }
 
 // evaluatedCase loads and computes the case of the route; a case that
@@ -197,7 +219,7 @@ func (s *Server) handleCompareSummaryCSV(w http.ResponseWriter, r *http.Request)
 		s.error(w, r, err)
 		return
 	}
-	rows := make([][]string, len(ids))
+	rows := make([][]csvCell, len(ids))
 	for i, id := range ids {
 		rec, err := s.Store.GetCase(r.Context(), id)
 		if err != nil {
@@ -220,11 +242,9 @@ func (s *Server) handleCompareSummaryCSV(w http.ResponseWriter, r *http.Request)
 }
 
 // summaryCSV is the summary header and the given rows.
-func summaryCSV(rows ...[]string) ([]byte, error) {
+func summaryCSV(rows ...[]csvCell) ([]byte, error) {
 	var buf bytes.Buffer
-	cw := csv.NewWriter(&buf)
-	cw.Write(summaryCSVHeader)
-	err := cw.WriteAll(rows)
+	err := writeCSVRows(&buf, append([][]csvCell{textCells(summaryCSVHeader)}, rows...)...)
 	return buf.Bytes(), err
 }
 

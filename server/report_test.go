@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"context"
 	"encoding/csv"
+	"encoding/json"
 	"fmt"
 	"io"
 	"math"
@@ -410,5 +411,36 @@ func TestFlowTextExponents(t *testing.T) {
 	segs := splitExp("4.2×10⁻⁹ s")
 	if len(segs) != 3 || segs[0].text != "4.2×10" || !segs[1].exp || segs[1].text != "-9" || segs[2].text != " s" {
 		t.Errorf("splitExp: %+v", segs)
+	}
+}
+
+// A steady case whose drops settle outside a property's published range
+// lists that warning in its report, never "None": the kerosene surrogate
+// in 1 atm, 600 K air settles near 153 °C, beyond the 0–57 °C of its
+// heat-capacity fit.
+func TestReportListsStateWarnings(t *testing.T) {
+	ts, _ := newTestServer(t)
+	body := `{"format":"fogbench-case/1","name":"hot dryer","fluid":"kerosene-surrogate",
+	  "gas":{"pressure_pa":101325,"temperature_k":600},
+	  "distribution":{"model":"rosin-rammler","d32_m":3e-5,"q":2.5,"bins":10}}`
+	resp, err := http.Post(ts.URL+"/api/cases", "application/json", strings.NewReader(body))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var created struct {
+		ID int64 `json:"id"`
+	}
+	json.NewDecoder(resp.Body).Decode(&created)
+	resp.Body.Close()
+	if created.ID == 0 {
+		t.Fatalf("create: %d", resp.StatusCode)
+	}
+	doc, code := getDoc(t, client(t), fmt.Sprintf("%s/cases/%d/report", ts.URL, created.ID))
+	if code != http.StatusOK {
+		t.Fatalf("report: %d", code)
+	}
+	w := doc.Find(`[data-testid=section-warnings]`).Text()
+	if strings.Contains(w, "None:") || !strings.Contains(w, "liquid heat capacity: the drops' steady temperature reached") {
+		t.Errorf("report warnings: %q", w)
 	}
 }

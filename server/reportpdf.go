@@ -480,7 +480,7 @@ func (p *pdfReport) body() {
 	if v.Result != nil {
 		p.heading("Results", v.MethodRefs("sizes", "means", "history"))
 		p.figureTable(v.SummaryFigures(), true)
-		p.subheading("Curvature", v.MethodRefs("laplace", "kelvin", "evaporation"))
+		p.subheading("Curvature", v.MethodRefs("laplace", "equilibrium", "kelvin", "evaporation"))
 		p.figureTable(v.CurvatureFigures(), true)
 		if sh := v.SuperheatView(); sh.S != nil {
 			p.subheading("Superheat and flashing: "+sh.S.Regime, "")

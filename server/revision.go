@@ -6,7 +6,6 @@ import (
 	"errors"
 	"fmt"
 	"net/http"
-	"net/url"
 	"strconv"
 	"strings"
 
@@ -35,7 +34,7 @@ func (s *Server) handleRevisions(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	v := views.RevisionsView{
-		Chrome: views.Chrome{Title: "History of " + rec.Case.Name, Nav: "library", Display: display(r), Flash: r.URL.Query().Get("flash")},
+		Chrome: views.Chrome{Title: "History of " + rec.Case.Name, Nav: "library", Display: display(r)},
 		ID:     id, Name: rec.Case.Name, Current: rec.Revision, Trashed: !rec.DeletedAt.IsZero(),
 	}
 	for _, rv := range revs {
@@ -151,7 +150,7 @@ func (s *Server) handleRevisionRestore(w http.ResponseWriter, r *http.Request) {
 	var ce *store.ConflictError
 	if errors.As(err, &ce) {
 		msg := ce.Error() + "; look at the history again before restoring."
-		http.Redirect(w, r, fmt.Sprintf("/cases/%d/revisions?flash=%s", id, url.QueryEscape(msg)), http.StatusSeeOther)
+		s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d/revisions", id), msg)
 		return
 	}
 	if err != nil {
@@ -162,7 +161,7 @@ func (s *Server) handleRevisionRestore(w http.ResponseWriter, r *http.Request) {
 	if rec.Revision == base {
 		flash = fmt.Sprintf("Revision %d has the same content as the newest; nothing to restore", rev)
 	}
-	http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=%s", id, url.QueryEscape(flash)), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", id), flash)
 }
 
 // conflictView lays the user's unsaved case beside the stored newest one.
@@ -247,7 +246,7 @@ func (s *Server) handleCaseMerge(w http.ResponseWriter, r *http.Request) {
 			s.error(w, r, err)
 			return
 		}
-		http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=%s", rec.ID, url.QueryEscape("Your version is saved as a new case")), http.StatusSeeOther)
+		s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), "Your version is saved as a new case")
 		return
 	case "reapply":
 		orig, err := s.Store.GetRevision(r.Context(), id, base)
@@ -300,7 +299,7 @@ func (s *Server) handleCaseMerge(w http.ResponseWriter, r *http.Request) {
 	if note != "" {
 		flash += ". " + note
 	}
-	http.Redirect(w, r, fmt.Sprintf("/cases/%d?flash=%s", id, url.QueryEscape(flash)), http.StatusSeeOther)
+	s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", id), flash)
 }
 
 // mergeFormError shows a merged case that does not validate in the edit

@@ -163,12 +163,12 @@ func TestLibraryActions(t *testing.T) {
 	at := fmt.Sprintf("%s/cases/%d", ts.URL, id)
 	resp := postForm(t, cl, at+"/rename", url.Values{"name": {"Renamed dryer"}, "revision": {"1"}, "back": {"/cases?sort=name"}})
 	resp.Body.Close()
-	if loc := resp.Header.Get("Location"); !strings.HasPrefix(loc, "/cases?sort=name&flash=") {
+	if loc := resp.Header.Get("Location"); loc != "/cases?sort=name" {
 		t.Fatalf("rename went back to %q", loc)
 	}
 	resp = postForm(t, cl, at+"/tags", url.Values{"tags": {"Dryer, team-b"}, "back": {"https://elsewhere.example/"}})
 	resp.Body.Close()
-	if loc := resp.Header.Get("Location"); !strings.HasPrefix(loc, fmt.Sprintf("/cases/%d?", id)) {
+	if loc := resp.Header.Get("Location"); loc != fmt.Sprintf("/cases/%d", id) {
 		t.Fatalf("an outside back URL was followed: %q", loc)
 	}
 	rec, _ := st.GetCase(ctx, id)

@@ -38,6 +38,18 @@ type Server struct {
 	// Token, when set, is the access token every request must present
 	// (auth.go); empty leaves a loopback-only fogbench open.
 	Token string
+	// AllowedHosts are the names, besides 127.0.0.1, localhost and [::1],
+	// that a fogbench without a token answers to (host.go): a reverse
+	// proxy's name, "name" for any port or "name:port" for one.
+	AllowedHosts []string
+
+	// sessions are the signed-in browsers (session.go); failures counts
+	// wrong tokens per client and failDelay is the pause after each
+	// (throttle.go); flashKey signs the one-line notices (flash.go).
+	sessions  *sessionTable
+	failures  *failureThrottle
+	failDelay time.Duration
+	flashKey  []byte
 
 	// results caches evaluated stored cases and their plots per revision
 	// and unit system (plotcache.go); nil draws every time.
@@ -53,7 +65,8 @@ func New(st Library, logger *slog.Logger) *Server {
 		logger = slog.Default()
 	}
 	return &Server{Store: st, Logger: logger, results: newResultCache(resultCacheEntries, resultCacheBytes),
-		admission: defaultAdmission()}
+		admission: defaultAdmission(), sessions: newSessionTable(), failures: newFailureThrottle(time.Now),
+		failDelay: failurePause, flashKey: randomKey()}
 }
 
 // Handler returns the routes, registered in one place.
@@ -63,16 +76,33 @@ func (s *Server) Handler() http.Handler {
 	r.Use(middleware.ClientIPFromRemoteAddr)
 	r.Use(requestLogger(s.Logger))
 	r.Use(s.recoverer)
+	r.Use(s.checkHost) // DNS rebinding: on loopback, only our own names (host.go)
 	r.Use(middleware.CleanPath)
 	r.Use(middleware.Timeout(30 * time.Second))
 	r.Use(securityHeaders)
 	r.Use(s.crossOrigin) // CSRF: cross-site POSTs get 403 (csrf.go)
 	r.Use(s.limitBody(bodyLimit))
-	r.Use(s.requireToken)
 
+	// What is public is decided by the route the router chose, never by
+	// the raw path: the static files and the sign-in page sit outside the
+	// group that asks for the token (/static/../api/export once got
+	// through a check of the raw path).
 	sub, _ := fs.Sub(static.FS, ".")
 	r.Handle("/static/*", http.StripPrefix("/static/", cacheStatic(http.FileServerFS(sub))))
+	r.Get("/login", s.handleLogin)
+	r.Post("/login", s.handleLoginPost)
+	r.Group(s.guardedRoutes)
 
+	r.NotFound(func(w http.ResponseWriter, r *http.Request) {
+		s.error(w, r, calc.Errorf(calc.NotFound, "There is no page at %s.", r.URL.Path))
+	})
+	return r
+}
+
+// guardedRoutes are every route but the public ones: each asks for the
+// access token on a shared host (requireToken).
+func (s *Server) guardedRoutes(r chi.Router) {
+	r.Use(s.requireToken)
 	r.Get("/", func(w http.ResponseWriter, r *http.Request) { http.Redirect(w, r, "/cases", http.StatusFound) })
 	r.Route("/cases", func(r chi.Router) {
 		r.Get("/", s.handleLibrary)
@@ -109,8 +139,6 @@ func (s *Server) Handler() http.Handler {
 	r.Get("/bundle/import", s.handleImportPage)
 	r.Post("/bundle/import", s.handleImportPreview)
 	r.Post("/bundle/import/apply", s.handleImportApply)
-	r.Get("/login", s.handleLogin)
-	r.Post("/login", s.handleLoginPost)
 	r.Post("/logout", s.handleLogout)
 	r.Route("/fluids", func(r chi.Router) {
 		r.Get("/", s.handleFluids)
@@ -141,10 +169,6 @@ func (s *Server) Handler() http.Handler {
 		r.Get("/export", s.handleAPIExport)
 		r.Post("/import", s.handleAPIImport)
 	})
-	r.NotFound(func(w http.ResponseWriter, r *http.Request) {
-		s.error(w, r, calc.Errorf(calc.NotFound, "There is no page at %s.", r.URL.Path))
-	})
-	return r
 }
 
 // display is the reader's unit system (a cookie, SI by default).
@@ -160,6 +184,9 @@ func display(r *http.Request) views.Display {
 func (s *Server) render(w http.ResponseWriter, r *http.Request, status int, chrome views.Chrome, content templ.Component) {
 	if chrome.Back == "" && r.Method == http.MethodGet {
 		chrome.Back = r.URL.RequestURI() // the units switch comes back here
+	}
+	if status == http.StatusOK && r.Method == http.MethodGet && chrome.Flash == "" {
+		chrome.Flash = s.takeFlash(w, r) // flash.go: a notice after a redirect
 	}
 	chrome.Author = s.author(r)
 	chrome.SignedIn = authorFromCookie(r) != ""

@@ -335,3 +335,50 @@ func TestSecurityHeadersAndBodyLimit(t *testing.T) {
 		t.Errorf("oversized body: %d", resp.StatusCode)
 	}
 }
+
+// POST /api/evaluate with an array never aborts for one case: the failing
+// case's error object stands in its place (200); ?strict=1 answers with
+// the first failing case's error instead. Either way the fields carry the
+// case's list index, as a decoding error's do ("[1].distribution.q").
+func TestAPIEvaluateArrayKeepsGoing(t *testing.T) {
+	ts, _ := newTestServer(t)
+	good := `{"format":"fogbench-case/1","name":"api","fluid":"water","liquid_temperature_k":298.15,
+	  "gas":{"pressure_pa":101325,"temperature_k":298.15},
+	  "distribution":{"model":"rosin-rammler","x_m":5e-5,"q":2.5,"bins":8}}`
+	bad := strings.Replace(good, `"q":2.5`, `"q":-1`, 1)
+	body := "[" + good + "," + bad + "," + good + "]"
+	resp, err := http.Post(ts.URL+"/api/evaluate", "application/json", strings.NewReader(body))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var res []struct {
+		Summary map[string]any `json:"summary"`
+		Error   string         `json:"error"`
+		Code    string         `json:"code"`
+		Fields  []struct{ Field, Message string }
+	}
+	err = json.NewDecoder(resp.Body).Decode(&res)
+	resp.Body.Close()
+	if err != nil || resp.StatusCode != 200 || len(res) != 3 {
+		t.Fatalf("array: %d, %d answers, %v", resp.StatusCode, len(res), err)
+	}
+	if res[0].Summary == nil || res[2].Summary == nil || res[0].Error != "" {
+		t.Errorf("good cases: %+v %+v", res[0], res[2])
+	}
+	if res[1].Summary != nil || res[1].Code != "invalid" || len(res[1].Fields) != 1 || res[1].Fields[0].Field != "[1].distribution.q" {
+		t.Errorf("bad case: %+v", res[1])
+	}
+	resp, err = http.Post(ts.URL+"/api/evaluate?strict=1", "application/json", strings.NewReader(body))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var e struct {
+		Error  string `json:"error"`
+		Fields []struct{ Field string }
+	}
+	json.NewDecoder(resp.Body).Decode(&e)
+	resp.Body.Close()
+	if resp.StatusCode != 400 || len(e.Fields) != 1 || e.Fields[0].Field != "[1].distribution.q" || !strings.HasPrefix(e.Error, "[1].distribution.q") {
+		t.Errorf("strict: %d %+v", resp.StatusCode, e)
+	}
+}

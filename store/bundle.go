@@ -159,28 +159,14 @@ func DecodeBundle(r io.Reader) (Bundle, error) {
 	tooLarge := func() error {
 		return &valid.FieldError{Field: "bundle", Message: fmt.Sprintf("larger than %d MiB", MaxBundleBytes>>20)}
 	}
-	var b Bundle
-	dec := json.NewDecoder(br)
-	dec.DisallowUnknownFields()
-	err := dec.Decode(&b)
-	if err == nil {
-		if _, terr := dec.Token(); terr != io.EOF {
-			err = &valid.FieldError{Field: "bundle", Message: "unexpected data after the bundle"}
-		}
-	}
+	b, err := decodeBundleParts(&spaceSqueezer{r: br})
 	switch {
 	case lr.err != nil: // the reader failed (a body past the server's limit, a lost connection)
 		return Bundle{}, fmt.Errorf("store: read bundle: %w", lr.err)
 	case lr.n > MaxBundleBytes:
 		return Bundle{}, tooLarge()
-	case err == io.EOF:
-		return Bundle{}, &valid.FieldError{Field: "bundle", Message: "the file is empty"}
 	case err != nil:
-		var fe *valid.FieldError
-		if errors.As(err, &fe) {
-			return Bundle{}, err
-		}
-		return Bundle{}, bundleJSONError(err)
+		return Bundle{}, err
 	}
 	if b.Format != BundleFormat {
 		msg := "not a fogbench bundle (expected format " + BundleFormat + ")"
@@ -207,12 +193,12 @@ func DecodeBundle(r io.Reader) (Bundle, error) {
 		if len(bc.Case) == 0 || bc.Case[0] != '{' {
 			return Bundle{}, &valid.FieldError{Field: at + ".case", Message: "missing case object"}
 		}
-		c, err := calc.DecodeOne(bc.Case)
+		c, err := calc.DecodeAt(bc.Case, at+".case")
 		if err != nil {
-			return Bundle{}, fmt.Errorf("%s.case: %w", at, err)
+			return Bundle{}, err
 		}
 		if err := calc.Validate(c); err != nil {
-			return Bundle{}, fmt.Errorf("%s.case (%s): %w", at, clip(c.Name), err)
+			return Bundle{}, fmt.Errorf("case %q: %w", clip(c.Name), valid.Within(at+".case", err))
 		}
 		body, err := encodeCase(c)
 		if err != nil {
@@ -224,7 +210,9 @@ func DecodeBundle(r io.Reader) (Bundle, error) {
 		}
 		c.Normalize()
 		bc.decoded = c
-		bc.Tags = NormalizeTags(bc.Tags)
+		if bc.Tags, err = CheckTags(bc.Tags); err != nil {
+			return Bundle{}, valid.Within(at, err)
+		}
 	}
 	return b, nil
 }
@@ -246,18 +234,147 @@ func (c *countingReader) Read(p []byte) (int, error) {
 	return n, err
 }
 
-func bundleJSONError(err error) error {
-	var se *json.SyntaxError
-	var te *json.UnmarshalTypeError
-	switch {
-	case errors.Is(err, io.ErrUnexpectedEOF), errors.Is(err, io.EOF):
-		return &valid.FieldError{Field: "bundle", Message: "the file ends too early (truncated)"}
-	case errors.As(err, &se):
-		return &valid.FieldError{Field: "bundle", Message: fmt.Sprintf("malformed JSON at byte %d: %v", se.Offset, se)}
-	case errors.As(err, &te):
-		return &valid.FieldError{Field: te.Field, Value: te.Value, Message: "must be a " + te.Type.String()}
+// spaceSqueezer passes JSON through with each run of white space outside
+// strings cut to one space. encoding/json's Decoder rescans the white
+// space it has buffered at every refill when it looks for the next token
+// (Token, More), so a bundle padded with megabytes of spaces took time
+// quadratic in their length (256 MiB: minutes); one space still separates
+// what the spaces separated, so the JSON means, and fails, the same.
+type spaceSqueezer struct {
+	r        io.Reader
+	inString bool
+	escaped  bool
+	spaced   bool // the last byte passed on was white space outside a string
+}
+
+func (s *spaceSqueezer) Read(p []byte) (int, error) {
+	for {
+		n, err := s.r.Read(p)
+		out := 0
+		for _, c := range p[:n] {
+			switch {
+			case s.inString:
+				switch {
+				case s.escaped:
+					s.escaped = false
+				case c == '\\':
+					s.escaped = true
+				case c == '"':
+					s.inString = false
+				}
+			case c == ' ' || c == '\t' || c == '\n' || c == '\r':
+				if s.spaced {
+					continue
+				}
+				s.spaced = true
+				p[out] = c
+				out++
+				continue
+			case c == '"':
+				s.inString = true
+			}
+			s.spaced = false
+			p[out] = c
+			out++
+		}
+		if out > 0 || err != nil {
+			return out, err
+		}
 	}
-	return &valid.FieldError{Field: "bundle", Message: err.Error()}
+}
+
+// decodeBundleParts reads a bundle from a stream one part at a time: the
+// top-level fields, and each case of the list on its own, so that memory
+// holds one case's bytes beside the decoded bundle and each error is
+// named by its full path ("cases[3].uid") by valid.DecodeJSON, which
+// needs the bytes of what it explains.
+func decodeBundleParts(r io.Reader) (Bundle, error) {
+	var b Bundle
+	dec := json.NewDecoder(r)
+	explain := func(err error) error { return valid.ExplainJSONError(err, "bundle") }
+	tok, err := dec.Token()
+	switch {
+	case err == io.EOF:
+		return b, &valid.FieldError{Field: "bundle", Message: "the file is empty"}
+	case err != nil:
+		return b, explain(err)
+	case tok != json.Delim('{'):
+		return b, &valid.FieldError{Field: "bundle", Message: "must be an object"}
+	}
+	part := func(key string, v any) error {
+		var raw json.RawMessage
+		if err := dec.Decode(&raw); err != nil {
+			return explain(err)
+		}
+		return valid.DecodeJSON(raw, v, key)
+	}
+	seen := map[string]bool{}
+	for dec.More() {
+		tok, err := dec.Token()
+		if err != nil {
+			return b, explain(err)
+		}
+		key, _ := tok.(string)
+		if seen[key] {
+			return b, &valid.FieldError{Field: key, Message: "appears twice in the bundle"}
+		}
+		seen[key] = true
+		switch key {
+		case "format":
+			err = part(key, &b.Format)
+		case "created_at":
+			err = part(key, &b.CreatedAt)
+		case "selection":
+			err = part(key, &b.Selection)
+		case "case_count":
+			err = part(key, &b.CaseCount)
+		case "cases":
+			err = decodeBundleCases(dec, &b)
+		default:
+			return b, &valid.FieldError{Field: key, Message: "unknown field; check its spelling against the format"}
+		}
+		if err != nil {
+			return b, err
+		}
+	}
+	if _, err := dec.Token(); err != nil { // the closing brace
+		return b, explain(err)
+	}
+	if _, err := dec.Token(); err != io.EOF {
+		return b, &valid.FieldError{Field: "bundle", Message: "has more after the end of the bundle"}
+	}
+	return b, nil
+}
+
+// decodeBundleCases reads the "cases" list element by element.
+func decodeBundleCases(dec *json.Decoder, b *Bundle) error {
+	tok, err := dec.Token()
+	if err != nil {
+		return valid.ExplainJSONError(err, "bundle")
+	}
+	if tok == nil { // "cases": null
+		return nil
+	}
+	if tok != json.Delim('[') {
+		return &valid.FieldError{Field: "cases", Message: "must be a list"}
+	}
+	for i := 0; dec.More(); i++ {
+		var raw json.RawMessage
+		if err := dec.Decode(&raw); err != nil {
+			return valid.ExplainJSONError(err, "bundle")
+		}
+		var bc BundleCase
+		at := fmt.Sprintf("cases[%d]", i)
+		if err := valid.DecodeJSON(raw, &bc, ""); err != nil {
+			return valid.Within(at, err)
+		}
+		b.Cases = append(b.Cases, bc)
+	}
+	_, err = dec.Token() // the closing bracket
+	if err != nil {
+		return valid.ExplainJSONError(err, "bundle")
+	}
+	return nil
 }
 
 func isUID(s string) bool {

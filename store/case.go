@@ -474,13 +474,14 @@ func (s *Store) SetTags(ctx context.Context, id int64, tags []string) error {
 	return wrapTx("set tags", tx.Commit())
 }
 
-// NormalizeTags trims, lower-cases, drops empties and de-duplicates.
+// NormalizeTags trims, lower-cases, drops empties and de-duplicates; it
+// refuses nothing (CheckTags does).
 func NormalizeTags(tags []string) []string {
 	seen := map[string]bool{}
 	var out []string
 	for _, t := range tags {
 		t = strings.ToLower(strings.TrimSpace(t))
-		if t == "" || seen[t] || len(t) > 40 {
+		if t == "" || seen[t] {
 			continue
 		}
 		seen[t] = true
@@ -491,10 +492,14 @@ func NormalizeTags(tags []string) []string {
 }
 
 func setTags(ctx context.Context, tx *txn, id int64, tags []string) error {
+	tags, err := CheckTags(tags)
+	if err != nil {
+		return err
+	}
 	if _, err := tx.ExecContext(ctx, `DELETE FROM case_tags WHERE case_id = ?`, id); err != nil {
 		return wrapTx("clear tags", err)
 	}
-	for _, t := range NormalizeTags(tags) {
+	for _, t := range tags {
 		if _, err := tx.ExecContext(ctx, `INSERT INTO case_tags(case_id, tag) VALUES (?, ?)`, id, t); err != nil {
 			return wrapTx("insert tag", err)
 		}

@@ -7,7 +7,6 @@ import (
 	"fmt"
 	"strconv"
 	"strings"
-	"unicode/utf8"
 
 	"fogbench/calc"
 	"fogbench/calc/valid"
@@ -320,16 +319,13 @@ func (s *Store) RestoreRevision(ctx context.Context, id int64, rev, base int, au
 }
 
 // MaxNameLen bounds a case name (in characters).
-const MaxNameLen = 200
+const MaxNameLen = calc.MaxNameChars
 
 // RenameCase saves a new revision that differs only in its name.
 func (s *Store) RenameCase(ctx context.Context, id int64, base int, name, author string) (CaseRecord, error) {
 	name = strings.TrimSpace(name)
-	if name == "" {
-		return CaseRecord{}, &valid.FieldError{Field: "name", Message: "give the case a name"}
-	}
-	if utf8.RuneCountInString(name) > MaxNameLen {
-		return CaseRecord{}, &valid.FieldError{Field: "name", Value: string([]rune(name)[:40]) + "…", Message: fmt.Sprintf("at most %d characters", MaxNameLen)}
+	if err := calc.CheckName(name); err != nil {
+		return CaseRecord{}, err
 	}
 	cur, err := s.GetRevision(ctx, id, base)
 	if err != nil {

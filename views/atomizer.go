@@ -186,6 +186,7 @@ func (v AtomizerPanelView) FlowNumberNote() string {
 type SMDRow struct {
 	Correlation, Name, Quantity, SMD, Source, Status string
 	InRange, Chosen                                  bool
+	Checked                                          bool // the form was checked against an independent text
 	Warnings                                         []string
 }
 
@@ -203,7 +204,8 @@ func (v AtomizerPanelView) SMDRows() []SMDRow {
 	var rows []SMDRow
 	for i, e := range v.Result.SMD {
 		rows = append(rows, SMDRow{Correlation: e.Correlation, Name: names[e.Correlation], Quantity: e.Quantity,
-			SMD: Micro(e.SMD), Source: e.Source, Status: e.Status, InRange: e.InRange, Chosen: i == 0, Warnings: e.Warnings})
+			SMD: Micro(e.SMD), Source: e.Source, Status: e.Status, InRange: e.InRange, Chosen: i == 0, Warnings: e.Warnings,
+			Checked: e.Provenance.Checked})
 	}
 	return rows
 }

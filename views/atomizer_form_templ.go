@@ -255,7 +255,7 @@ func AtomizerFields(f FormView) templ.Component {
 				return templ_7745c5c3_Err
 			}
 		}
-		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 26, "</select> <small>Every correlation's form is from memory, not yet checked against the printed source; the case page shows all of them with their ranges.</small>")
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 26, "</select> <small>Each correlation's citation and whether its form was checked are on the atomizer workbench; the case page shows every correlation with its range and status.</small>")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}

@@ -50,6 +50,38 @@ type LibraryView struct {
 	Family     string
 	Families   []Option
 	TagOptions []Option
+	// Refused is a row action the server refused (a rename or tags it
+	// cannot take): that row's actions open with what was typed and the
+	// message beside the field.
+	Refused *RowInput
+}
+
+// RowInput is what was typed into one field of a library row's actions.
+type RowInput struct {
+	ID      int64
+	Field   string // "name" or "tags"
+	Value   string
+	Message string
+}
+
+// RowOpen reports whether a row's actions show open (one was refused).
+func (v LibraryView) RowOpen(r CaseRow) bool { return v.Refused != nil && v.Refused.ID == r.ID }
+
+// RowValue is the value a row's field shows: what was typed when it was
+// refused, else stored.
+func (v LibraryView) RowValue(r CaseRow, field, stored string) string {
+	if v.RowOpen(r) && v.Refused.Field == field {
+		return v.Refused.Value
+	}
+	return stored
+}
+
+// RowError is the message beside a row's field, or "".
+func (v LibraryView) RowError(r CaseRow, field string) string {
+	if v.RowOpen(r) && v.Refused.Field == field {
+		return v.Refused.Message
+	}
+	return ""
 }
 
 // CaseRow is one line of the library.
@@ -155,8 +187,8 @@ func (v CaseView) SummaryFigures() []Figure {
 		{Label: "10 % of volume below", Symbol: "Dv10", Value: Micro(s.Dv10M), Unit: "µm"},
 		{Label: "90 % of volume below", Symbol: "Dv90", Value: Micro(s.Dv90M), Unit: "µm"},
 		{Label: "Relative span", Symbol: "(Dv90−Dv10)/Dv50", Value: Num(s.Span, 3)},
-		{Label: "Arithmetic mean", Symbol: "D10", Value: Micro(s.D10M), Unit: "µm"},
-		{Label: "Volume mean", Symbol: "D30", Value: Micro(s.D30M), Unit: "µm"},
+		numberMean("Arithmetic mean", "D10", s.D10M),
+		numberMean("Volume mean", "D30", s.D30M),
 		{Label: "De Brouckere mean", Symbol: "D43", Value: Micro(s.D43M), Unit: "µm"},
 	}
 	for _, t := range []struct {
@@ -164,6 +196,10 @@ func (v CaseView) SummaryFigures() []Figure {
 		v          *float64
 	}{{"50 % of mass evaporated", "t50", s.T50S}, {"90 % evaporated", "t90", s.T90S}, {"99 % evaporated", "t99", s.T99S}} {
 		f := Figure{Label: t.label, Symbol: t.sym, Value: "not reached", Hint: "the surroundings hold the vapor back"}
+		if end := v.Case.Evaporation.MaxTimeS; end > 0 {
+			// The case ends the history itself; it may end first.
+			f.Hint = "not by the end of the history the case sets, " + v.Display.Quantity(units.Time, end, 4)
+		}
 		if v.Result.Superheat != nil {
 			f.Value, f.Hint = "not computed", "a superheated liquid flashes; the evaporation model does not apply"
 		}
@@ -376,4 +412,13 @@ func enhancementText(e float64) string {
 		return "undefined"
 	}
 	return fmt.Sprintf("%.6f", e)
+}
+
+// numberMean is the figure of a number mean, which a model may not have
+// (a Rosin–Rammler with q ≤ 3): "does not exist" then, with the reason.
+func numberMean(label, sym string, v *float64) Figure {
+	if v == nil {
+		return Figure{Label: label, Symbol: sym, Value: "does not exist", Hint: "the model's number distribution has no such mean (see the warnings)"}
+	}
+	return Figure{Label: label, Symbol: sym, Value: Micro(*v), Unit: "µm"}
 }

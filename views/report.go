@@ -127,13 +127,27 @@ type Method struct {
 	Reference string
 }
 
+// equilibriumMethod is the flat-surface equilibrium at the gas pressure:
+// its equation, and the equation of state and sources the result names.
+func equilibriumMethod(r *calc.Result) Method {
+	m := Method{ID: "equilibrium", Name: "Surface equilibrium at the gas pressure (Poynting factor, fugacity coefficients, dissolved gas)",
+		Equation:  "y_v φ_v p = x_L p_sat φ_sat exp[v_L (p − p_sat)/(R T)]; p_flat = y_v p; the surface stops at the mixture critical point of liquid and gas",
+		Use:       "flat-surface vapor pressure of every class, gas dissolved in the liquid, latent heat at the surface, mixture critical limit",
+		Reference: "docs/methods-evap.md (Equilibrium at the gas pressure)"}
+	if r != nil && r.Equilibrium != nil {
+		m.Reference = r.Equilibrium.Method + "; docs/methods-evap.md"
+	}
+	return m
+}
+
 // Anchor is the fragment a report links to.
 func (m Method) Anchor() string { return "method-" + m.ID }
 
 // Methods lists the models and equations this case's evaluation ran through,
 // chosen from the case's options, so the list names only what was used. The
 // references are those cited in calc's doc comments and docs/methods-*.md,
-// with the same "from memory" marks.
+// with the recalled-not-read marks of those files in the user's words
+// ("not checked against the printed source").
 func (v ReportView) Methods() []Method {
 	c := v.Case
 	dist := c.Distribution
@@ -152,17 +166,17 @@ func (v ReportView) Methods() []Method {
 		out = append(out, Method{ID: "sizes", Name: "Log-normal distribution",
 			Equation:  "Q(d) = Φ[(ln d − ln d50)/ln σg]; moments by the Hatch–Choate relations",
 			Use:       "drop sizes, cut into the size classes",
-			Reference: "Hatch & Choate, J. Franklin Inst. 207 (1929) 369–387 (citation details from memory); docs/methods-sizedist.md"})
+			Reference: "Hatch & Choate, J. Franklin Inst. 207 (1929) 369–387 (citation details not checked); docs/methods-sizedist.md"})
 	case "upper-limit":
 		out = append(out, Method{ID: "sizes", Name: "Upper-limit log-normal distribution",
 			Equation:  "Q3(d) = [1 + erf(δy)]/2, y = ln[a d/(d_max − d)], a = (d_max − Dv50)/Dv50",
 			Use:       "drop sizes, cut into the size classes",
-			Reference: "Mugele & Evans, Ind. Eng. Chem. 43 (1951) 1317–1324 (form from memory); docs/methods-sizedist.md"})
+			Reference: "Mugele & Evans, Ind. Eng. Chem. 43 (1951) 1317–1324 (form not checked against the printed source); docs/methods-sizedist.md"})
 	case "nukiyama-tanasawa":
 		out = append(out, Method{ID: "sizes", Name: "Nukiyama–Tanasawa distribution",
 			Equation:  "dN/dd = a d^p exp(−b d^q)",
 			Use:       "drop sizes, cut into the size classes",
-			Reference: "Nukiyama & Tanasawa, Trans. SME Japan 5 (1939) 62–67 (from memory); docs/methods-sizedist.md"})
+			Reference: "Nukiyama & Tanasawa, Trans. SME Japan 5 (1939) 62–67 (not checked against the printed source); docs/methods-sizedist.md"})
 	case "atomizer":
 		out = append(out, v.atomizerMethod())
 		out = append(out, Method{ID: "sizes", Name: "Rosin–Rammler distribution around the correlation's SMD",
@@ -173,7 +187,7 @@ func (v ReportView) Methods() []Method {
 		out = append(out, Method{ID: "sizes", Name: "Measured size classes",
 			Equation:  "constant number density in d within each class: <d^p> = (b^(p+1) − a^(p+1))/((p+1)(b − a))",
 			Use:       "class averages, means and quantiles of the typed classes",
-			Reference: "ASTM E799 class-average rule (as summarised in the project's reference notes; the clause itself not read); docs/methods-sizedist.md"})
+			Reference: "ASTM E799 class-average rule (the clause itself not read); docs/methods-sizedist.md"})
 	}
 	out = append(out,
 		Method{ID: "means", Name: "Mean and representative diameters",
@@ -185,13 +199,14 @@ func (v ReportView) Methods() []Method {
 			Use:       "Laplace pressure per class; the diameter where it equals 1 atm",
 			Reference: "Young–Laplace; docs/methods-evap.md (Curvature)"},
 		Method{ID: "kelvin", Name: "Kelvin equation (Poynting integral, incompressible liquid)",
-			Equation:  "p(r)/p_sat = exp[2σ v_L/(r R T)]; Kelvin length ℓ_K = 2σ v_L/(R T)",
+			Equation:  "p(r)/p_flat = exp[2σ v_L/(r R T)], p_flat the flat-surface equilibrium at the gas pressure; Kelvin length ℓ_K = 2σ v_L/(R T)",
 			Use:       "vapor pressure raise per class and the curvature thresholds",
-			Reference: "Thomson (1871); Seinfeld & Pandis, Atmospheric Chemistry and Physics, eq. 10.86 (equation number from memory); R from CODATA 2018"},
+			Reference: "Thomson (1871); Seinfeld & Pandis, Atmospheric Chemistry and Physics, eq. 10.86 (equation number not checked); R from CODATA 2018"},
+		equilibriumMethod(v.Result),
 		Method{ID: "evaporation", Name: "Quasi-steady drop evaporation with Spalding transfer numbers",
 			Equation:  "ṁ = π d ρ_g D Sh ln(1 + B_M), B_M = (Y_s − Y_∞)/(1 − Y_s); heat through B_T = (1 + B_M)^φ − 1",
 			Use:       "evaporation rate, enhancement and lifetime per class",
-			Reference: "Spalding (1953) (from memory); Abramzon & Sirignano, Int. J. Heat Mass Transfer 32 (1989) 1605 (from memory); docs/methods-evap.md"},
+			Reference: "Spalding (1953); Abramzon & Sirignano, Int. J. Heat Mass Transfer 32 (1989) 1605 (not checked against the printed source); docs/methods-evap.md"},
 		convectionMethod(c.Evaporation.Convection))
 	if !c.Evaporation.NoTransition {
 		alpha := c.Evaporation.AccommodationCoef
@@ -203,12 +218,15 @@ func (v ReportView) Methods() []Method {
 			Use:       "evaporation of drops comparable to the mean free path; Kn and regime per class",
 			Reference: "Fuchs & Sutugin (1971); Seinfeld & Pandis eq. 12.43"})
 	}
-	switch {
-	case c.Heating == "transient":
-		out = append(out, Method{ID: "temperature", Name: "Transient drop heating",
+	if c.Heating == "transient" {
+		out = append(out, Method{ID: "heating", Name: "Transient drop heating",
 			Equation:  "dm/dt = −ṁ, m c_p,L dT_s/dt = Q − ṁL, integrated by Dormand–Prince 5(4)",
-			Use:       "drop temperatures in the evaporation history",
-			Reference: "Abramzon & Sirignano (1989) §2 (from memory); Dormand & Prince (1980); docs/methods-evap.md"})
+			Use:       "drop temperatures, lifetimes and the evaporation history, from the injection temperature",
+			Reference: "Abramzon & Sirignano (1989) section 2 (not checked against the printed source); Dormand & Prince (1980); docs/methods-evap.md"})
+	}
+	// The per-class table (surface temperature, Kelvin ratio, rate) is at
+	// the fixed or the steady temperature, transient heating or not.
+	switch {
 	case c.LiquidTemperatureK != nil:
 		out = append(out, Method{ID: "temperature", Name: "Fixed drop temperature",
 			Equation:  "T_s = the given liquid temperature for every class",
@@ -266,12 +284,12 @@ func convectionMethod(name string) Method {
 		return Method{ID: "convection", Name: "Abramzon–Sirignano film model",
 			Equation:  "Sh* = 2 + (Sh0 − 2)/F(B_M), Nu* = 2 + (Nu0 − 2)/F(B_T), F(B) = (1 + B)^0.7 ln(1 + B)/B",
 			Use:       "convective transfer at the relative velocity",
-			Reference: "Abramzon & Sirignano (1989) (form from memory); Clift, Grace & Weber (1978)"}
+			Reference: "Abramzon & Sirignano (1989) (form not checked against the printed source); Clift, Grace & Weber (1978)"}
 	case "frossling":
 		return Method{ID: "convection", Name: "Frössling convection",
 			Equation:  "Sh = 2(1 + 0.276 Re^½ Sc^⅓)",
 			Use:       "convective transfer at the relative velocity",
-			Reference: "Frössling (1938) (from memory); docs/methods-evap.md"}
+			Reference: "Frössling (1938) (not checked against the printed source); docs/methods-evap.md"}
 	case "none":
 		return Method{ID: "convection", Name: "Stagnant surroundings",
 			Equation:  "Sh = Nu = 2",
@@ -281,7 +299,7 @@ func convectionMethod(name string) Method {
 	return Method{ID: "convection", Name: "Ranz–Marshall convection",
 		Equation:  "Sh = 2 + 0.6 Re^½ Sc^⅓, Nu = 2 + 0.6 Re^½ Pr^⅓",
 		Use:       "convective transfer at the relative velocity",
-		Reference: "Ranz & Marshall, Chem. Eng. Prog. 48 (1952) 141–146 and 173–180 (from memory)"}
+		Reference: "Ranz & Marshall, Chem. Eng. Prog. 48 (1952) 141–146 and 173–180 (not checked against the printed source)"}
 }
 
 // MethodRef is the short label ("M3") of the method with this id, as the
@@ -323,8 +341,8 @@ func (v CaseView) BinColumns() []BinColumn {
 		{"Number, %", "sizes"},
 		{"Volume, %", "sizes"},
 		{"Laplace 2σ/r, " + d.Unit(units.Pressure), "laplace"},
-		{"Vapor pressure, " + d.Unit(units.Pressure), "kelvin"},
-		{"Kelvin ratio p(r)/p_sat", "kelvin"},
+		{"Vapor pressure, " + d.Unit(units.Pressure), "equilibrium"},
+		{"Kelvin ratio p(r)/p_flat", "kelvin"},
 		{"Evaporation enhancement", "evaporation"},
 		{"Lifetime, " + d.Unit(units.Time), "lifetime"},
 		{"Surface T, " + d.Unit(units.Temperature), "temperature"},

@@ -48,3 +48,37 @@ func TestMethodsFollowTheCase(t *testing.T) {
 		t.Errorf("fixed temperature not listed: %q", got[len(got)-3].Name)
 	}
 }
+
+// A transient case lists its heating model and the temperature the
+// size-class table is computed at; a time not reached within the history
+// the case ends itself is said to be so, not blamed on the surroundings.
+func TestTransientMethodsAndHistoryEnd(t *testing.T) {
+	tinj := 300.0
+	c := calc.Case{Heating: "transient", InjectionTemperatureK: &tinj, Distribution: calc.Distribution{Model: "rosin-rammler"}}
+	v := ReportView{CaseView: CaseView{Case: c}}
+	if v.MethodRef("heating") == "" || v.MethodRef("temperature") == "" {
+		t.Errorf("transient case: heating %q, per-class temperature %q", v.MethodRef("heating"), v.MethodRef("temperature"))
+	}
+	v.Case.Heating = ""
+	if v.MethodRef("heating") != "" {
+		t.Error("heating method listed for a steady case")
+	}
+
+	t50 := 1e-3
+	cv := CaseView{Result: &calc.Result{Summary: calc.Summary{T50S: &t50}}}
+	hint := func() string {
+		for _, f := range cv.SummaryFigures() {
+			if f.Symbol == "t99" {
+				return f.Hint
+			}
+		}
+		return ""
+	}
+	if got := hint(); !strings.Contains(got, "surroundings") {
+		t.Errorf("no end set: hint %q", got)
+	}
+	cv.Case.Evaporation.MaxTimeS = 0.01
+	if got := hint(); !strings.Contains(got, "end of the history") || !strings.Contains(got, "10 ms") {
+		t.Errorf("history ends at 10 ms: hint %q", got)
+	}
+}

@@ -15,12 +15,14 @@
 // (Properties), so the package depends on no other calc package except
 // calc/valid (field errors) and calc/phys.
 //
-// Verification status: every SMD, film-thickness, discharge-coefficient and
-// cone-angle form here is a form from memory (REFERENCE-DATA §5), not yet
-// checked against the printed source. The tests check the code against
-// hand arithmetic from the formulas as recalled (REFERENCE-DATA §5,
-// [computed]) and against an independent NumPy evaluation of the same forms;
-// they do not show that the forms match the papers. Only the flow-number
-// definitions and unit conversions are exact. Results say so in their
-// warnings.
+// Verification status: the forms were written from memory; each
+// correlation and auxiliary relation carries a Provenance record (full
+// citation; "checked against" the open text that confirmed it, or
+// "published form not confirmed here: use the band"). No printed original
+// was read, so a check is as good as the secondary text named in it. The
+// tests check the code against hand arithmetic from the forms and against
+// an independent NumPy evaluation of the same forms; they do not show that
+// the forms match the papers. Only the flow-number definitions and unit
+// conversions are exact. Results name every unconfirmed estimate in a
+// warning. docs/methods-atomize.md lists what was read, where.
 package atomize

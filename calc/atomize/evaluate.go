@@ -3,12 +3,10 @@ package atomize
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"fogbench/calc/valid"
 )
-
-// memoryWarning is attached to every result that carries an SMD.
-const memoryWarning = "the SMD correlations are forms from memory (REFERENCE-DATA §5), not yet checked against the printed source"
 
 // lookup finds the family and the chosen correlation; an empty
 // correlationID picks the family's default, which is nil for a family that
@@ -71,7 +69,7 @@ func (c *correlation) estimate(pt *point) (SMDEstimate, error) {
 			Message: "the inputs are so extreme that " + c.info.ID + " gives no finite drop size"}
 	}
 	e := SMDEstimate{Correlation: c.info.ID, SMD: v, Quantity: c.info.Quantity, InRange: true,
-		Source: c.info.Source, Status: c.info.Status}
+		Source: c.info.Source, Status: c.info.Status, Provenance: c.info.Provenance}
 	for _, r := range c.info.Ranges {
 		q, ok := pt.quantity(r.Quantity)
 		if ok && (q < r.Min || q > r.Max) {
@@ -116,15 +114,15 @@ func (f *family) result(pt *point, c *correlation) (Result, error) {
 		}
 		r.SMD = append(r.SMD, e)
 	}
-	if len(r.SMD) > 0 {
-		r.Warnings = append(r.Warnings, memoryWarning)
+	if w := unconfirmedWarning(r.SMD); w != "" {
+		r.Warnings = append(r.Warnings, w)
 	}
 	r.SMDBand = band(r.SMD)
 	if a, ok := r.Estimate("rizk-lefebvre-1980"); ok {
 		if b, ok := r.Estimate("elshanawany-lefebvre-1980"); ok {
 			ratio := math.Max(a.SMD, b.SMD) / math.Min(a.SMD, b.SMD)
 			r.Warnings = append(r.Warnings, fmt.Sprintf("the two prefilming airblast forms differ by a factor of %.2f here "+
-				"(about 2.9 at the REFERENCE-DATA §5.5 check point); one recollection may be wrong, so use neither as a validation target", ratio))
+				"(about 2.9 for kerosene at 100 m/s, ALR 3, 20 mm lip); neither published form was confirmed here, so use neither as a validation target", ratio))
 		}
 	}
 
@@ -152,6 +150,21 @@ func (f *family) result(pt *point, c *correlation) (Result, error) {
 		return Result{}, err
 	}
 	return r, nil
+}
+
+// unconfirmedWarning names the estimates whose published form was not
+// confirmed, or is "" when every one was checked.
+func unconfirmedWarning(es []SMDEstimate) string {
+	var ids []string
+	for _, e := range es {
+		if !e.Provenance.Checked {
+			ids = append(ids, e.Correlation)
+		}
+	}
+	if len(ids) == 0 {
+		return ""
+	}
+	return "published form not confirmed here for " + strings.Join(ids, ", ") + ": use the band between correlations"
 }
 
 // applies reports why c cannot be evaluated at pt, or nil when it can.

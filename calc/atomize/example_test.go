@@ -7,8 +7,8 @@ import (
 )
 
 // A fictional kerosene burner nozzle: 10 g/s at 10 bar through a 1 mm
-// pressure-swirl orifice. The SMD forms are from memory (REFERENCE-DATA §5),
-// not yet checked against the printed source.
+// pressure-swirl orifice. Each correlation's provenance record says how far
+// its form was checked.
 func ExampleEvaluate() {
 	props := atomize.Properties{
 		LiquidDensity:   780,
@@ -39,8 +39,8 @@ func ExampleEvaluate() {
 	// lefebvre-1987        52.6 µm
 	// radcliffe-1955       74.4 µm
 	// jasuja-1979          57.9 µm
-	// wang-lefebvre-1987   46.6 µm
-	// film 234 µm
+	// wang-lefebvre-1987   38.1 µm
+	// film 173 µm
 }
 
 // The pressure that brings the same nozzle's SMD down to 40 µm at fixed

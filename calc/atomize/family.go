@@ -57,7 +57,7 @@ var inputCatalog = map[string]InputInfo{
 }
 
 // rangeCommon labels validity bounds that are not the papers' own.
-const rangeCommon = "common practice, no source: the paper's own data range is not recalled"
+const rangeCommon = "common practice, no source: the paper's own data range was not read"
 
 // input builds the InputInfo of name from the catalog.
 func input(name string, required bool) InputInfo {
@@ -169,7 +169,7 @@ func (f *family) inputNames() string {
 // Rosin–Rammler spreads per family. Lefebvre (1989) gives q between about
 // 1.5 and 4 for most sprays (from memory); the single values below are
 // common practice, no source.
-const qSource = "common practice, no source (Lefebvre 1989 quotes q ≈ 1.5–4 for most sprays, from memory)"
+const qSource = "common practice, no source (Lefebvre's Atomization and Sprays (1989) quotes q ≈ 1.5–4 for most sprays; not checked here)"
 
 func buildFamilies() []*family {
 	return []*family{
@@ -206,10 +206,11 @@ func plainOrificeFamily() *family {
 			info: CorrelationInfo{
 				ID: "harmon-1955", Name: "Harmon (1955)", Quantity: quantitySMD,
 				Equation:    "SMD = 3330 d0^0.3 μ_L^0.07 ρ_L^−0.648 σ^−0.15 U_L^−0.55 μ_A^0.78 ρ_A^−0.052",
-				FittedUnits: "SI as recalled (dimensional)",
+				FittedUnits: "SI (dimensional); the units the constant belongs to are not confirmed",
 				Validity:    "low-speed jets in air; " + rangeCommon,
 				Ranges:      []Range{velocityRange},
-				Source:      "Harmon, D. B., J. Franklin Inst. 259 (1955) 519",
+				Provenance: unconfirmed(Citation{Authors: "Harmon, D. B.", Journal: "J. Franklin Inst.", Year: 1955, Volume: "259", Pages: "519"},
+					"no open text quoting this form was found"),
 			},
 			smd: func(pt *point) float64 {
 				p := pt.p
@@ -220,10 +221,12 @@ func plainOrificeFamily() *family {
 			info: CorrelationInfo{
 				ID: "merrington-richardson-1947", Name: "Merrington & Richardson (1947)", Quantity: quantitySMD,
 				Equation:    "SMD = 500 d0^1.2 ν_L^0.2 / U_L",
-				FittedUnits: "uncertain (REFERENCE-DATA §8); evaluated in SI as recalled",
+				FittedUnits: "SI (dimensional): d0 m, ν_L m²/s, U_L m/s, SMD m",
 				Validity:    "jets into still air; " + rangeCommon,
 				Ranges:      []Range{velocityRange},
-				Source:      "Merrington, A. C. & Richardson, E. G., Proc. Phys. Soc. 59 (1947) 1",
+				Provenance: checkedAgainst(Citation{Authors: "Merrington, A. C. & Richardson, E. G.", Title: "The break-up of liquid jets",
+					Journal: "Proc. Phys. Soc.", Year: 1947, Volume: "59", Pages: "1"},
+					srcSVEC+": SMD = 500 d0^1.2 ν_L^0.2/U_L with d0 in m, ν_L in m²/s, U_L in m/s", ""),
 			},
 			smd: func(pt *point) float64 {
 				return merringtonRichardsonSMD(pt.d0, pt.p.LiquidViscosity/pt.p.LiquidDensity, pt.uL)
@@ -232,11 +235,13 @@ func plainOrificeFamily() *family {
 		{
 			info: CorrelationInfo{
 				ID: "elkotb-1982", Name: "Elkotb (1982)", Quantity: quantitySMD,
-				Equation:    "SMD = 3.08 ν_L^0.385 (σ ρ_L)^0.737 ρ_A^0.06 ΔP_L^−0.54",
-				FittedUnits: "SI as recalled (dimensional)",
+				Equation:    "SMD[µm] = 6156 ν_L^0.385 (σ ρ_L)^0.737 ρ_A^0.06 ΔP_L[bar]^−0.54, i.e. SMD = 3.0853 ν_L^0.385 (σ ρ_L)^0.737 ρ_A^0.06 ΔP_L^−0.54 in SI",
+				FittedUnits: "SMD µm, ν_L m²/s, σ N/m, ρ kg/m³, ΔP_L bar; evaluated in SI with the exact conversion",
 				Validity:    "diesel injection; " + rangeCommon,
 				Ranges:      []Range{{Quantity: inDeltaP, Min: 5e6, Max: 3e8, Source: rangeCommon}},
-				Source:      "Elkotb, M. M., Prog. Energy Combust. Sci. 8 (1982) 61",
+				Provenance: checkedAgainst(Citation{Authors: "Elkotb, M. M.", Title: "Fuel atomization for spray modelling",
+					Journal: "Prog. Energy Combust. Sci.", Year: 1982, Volume: "8", Pages: "61"},
+					srcSVEC+": 6156 with ν_L in m²/s and ΔP_L in bar, SMD in µm", ""),
 			},
 			smd: func(pt *point) float64 {
 				p := pt.p
@@ -275,7 +280,8 @@ func pressureSwirlFamily() *family {
 				FittedUnits: "SI (dimensional)",
 				Validity:    rangeCommon,
 				Ranges:      []Range{pressureRange},
-				Source:      "Lefebvre, A. H., Atomisation Spray Technol. 3 (1987) 37",
+				Provenance: checkedAgainst(Citation{Authors: "Lefebvre, A. H.", Journal: "Atomisation Spray Technol.", Year: 1987, Volume: "3", Pages: "37"},
+					srcPerseus+" (SMDlev): SMD = 2.25 σ^0.25 μ_L^0.25 ṁ_L^0.25 ρ_A^−0.25 ΔP_L^−0.5 in SI", ""),
 			},
 			smd: func(pt *point) float64 {
 				p := pt.p
@@ -289,7 +295,8 @@ func pressureSwirlFamily() *family {
 				FittedUnits: "SI (dimensional)",
 				Validity:    "data of Needham and of Joyce, low-viscosity fuels; numeric bounds " + rangeCommon,
 				Ranges:      []Range{pressureRange, {Quantity: qLiquidViscosity, Min: 3e-4, Max: 3e-3, Source: rangeCommon}},
-				Source:      "Radcliffe, A., Proc. IMechE 169 (1955) 93",
+				Provenance: checkedAgainst(Citation{Authors: "Radcliffe, A.", Journal: "Proc. Inst. Mech. Eng.", Year: 1955, Volume: "169", Pages: "93"},
+					srcPerseus+" (SMDrad): SMD = 7.3 σ^0.6 μ_L^0.2 ρ_L^−0.2 ṁ_L^0.25 ΔP_L^−0.4 in SI, the same as ν_L^0.2", ""),
 			},
 			smd: func(pt *point) float64 {
 				p := pt.p
@@ -303,7 +310,8 @@ func pressureSwirlFamily() *family {
 				FittedUnits: "SI (dimensional)",
 				Validity:    "kerosene, gas oil and residual oils; numeric bounds " + rangeCommon,
 				Ranges:      []Range{pressureRange, {Quantity: qLiquidViscosity, Min: 5e-4, Max: 5e-2, Source: rangeCommon}},
-				Source:      "Jasuja, A. K., ASME J. Eng. Power 101 (1979) 250",
+				Provenance: checkedAgainst(Citation{Authors: "Jasuja, A. K.", Journal: "ASME J. Eng. Power", Year: 1979, Volume: "101", Pages: "250"},
+					srcPerseus+" (SMDjas): SMD = 4.4 σ^0.6 μ_L^0.16 ρ_L^−0.16 ṁ_L^0.22 ΔP_L^−0.43 in SI, the same as ν_L^0.16", ""),
 			},
 			smd: func(pt *point) float64 {
 				p := pt.p
@@ -314,12 +322,15 @@ func pressureSwirlFamily() *family {
 			info: CorrelationInfo{
 				ID: "wang-lefebvre-1987", Name: "Wang & Lefebvre (1987)", Quantity: quantitySMD,
 				Equation: "SMD = 4.52 [σ μ_L²/(ρ_A ΔP_L²)]^0.25 (t cos θ)^0.25 + 0.39 [σ ρ_L/(ρ_A ΔP_L)]^0.25 (t cos θ)^0.75; " +
-					"t = film thickness (Rizk & Lefebvre 1985), θ = cone half-angle",
+					"t = 2.7 [d0 ṁ_L μ_L/(ρ_L ΔP_L)]^0.25 (Suyari & Lefebvre 1986), θ = cone half-angle",
 				FittedUnits: "dimensionally consistent",
 				Validity:    rangeCommon,
 				Ranges:      []Range{pressureRange},
-				Source:      "Wang, X. F. & Lefebvre, A. H., J. Propulsion Power 3(1) (1987) 11",
-				Needs:       "cone_angle_deg, or swirl_chamber_diameter_m with inlet_port_area_m2",
+				Provenance: checkedAgainst(Citation{Authors: "Wang, X. F. & Lefebvre, A. H.", Title: "Mean drop sizes from pressure-swirl nozzles",
+					Journal: "J. Propulsion Power", Year: 1987, Volume: "3(1)", Pages: "11–18"},
+					srcSVEC+": the form with the half angle θ, fed the film thickness t = 2.7 [d0 ṁ_L μ_L/(ρ_L ΔP_L)]^0.25",
+					"fed the constant 3.66 of Rizk & Lefebvre (1985) instead, the SMD is (3.66/2.7)^0.25–(3.66/2.7)^0.75 times larger (8–26 %)"),
+				Needs: "cone_angle_deg, or swirl_chamber_diameter_m with inlet_port_area_m2",
 			},
 			needs: func(pt *point) error {
 				if !pt.coneKnown {
@@ -349,14 +360,15 @@ func nukiyamaTanasawa() *correlation {
 			Equation:    "SMD[µm] = (585/U_R) (σ/ρ_L)^0.5 + 597 [μ_L/(σ ρ_L)^0.5]^0.45 (1000 Q_L/Q_A)^1.5; Q_L/Q_A = ρ_A/(ρ_L ALR)",
 			FittedUnits: "mixed cgs: SMD µm, U_R m/s, σ dyn/cm, ρ_L g/cm³, μ_L poise, Q_L/Q_A volume ratio",
 			Validity: "small pneumatic nozzles; liquid density about 0.7–1.2 g/cm³, surface tension about 19–73 dyn/cm, " +
-				"viscosity about 0.3–50 cP (from memory, not checked); velocity bound " + rangeCommon,
+				"viscosity about 0.3–50 cP (" + ntRange + "); velocity bound " + rangeCommon,
 			Ranges: []Range{
 				airblastVelocity,
-				{Quantity: qLiquidDensity, Min: 700, Max: 1200, Source: "from memory, not checked"},
-				{Quantity: qSurfaceTension, Min: 0.019, Max: 0.073, Source: "from memory, not checked"},
-				{Quantity: qLiquidViscosity, Min: 3e-4, Max: 5e-2, Source: "from memory, not checked"},
+				{Quantity: qLiquidDensity, Min: 700, Max: 1200, Source: ntRange},
+				{Quantity: qSurfaceTension, Min: 0.019, Max: 0.073, Source: ntRange},
+				{Quantity: qLiquidViscosity, Min: 3e-4, Max: 5e-2, Source: ntRange},
 			},
-			Source: "Nukiyama, S. & Tanasawa, Y., Trans. Soc. Mech. Eng. Japan 5 (1939) 62 (REFERENCE-DATA §4.5)",
+			Provenance: unconfirmed(Citation{Authors: "Nukiyama, S. & Tanasawa, Y.", Journal: "Trans. Soc. Mech. Eng. Japan", Year: 1939, Volume: "5", Pages: "62"},
+				"fitted in mixed cgs units; no open text quoting the SMD form was found"),
 		},
 		smd: func(pt *point) float64 {
 			p := pt.p
@@ -399,8 +411,10 @@ func airblastFamily() *family {
 				FittedUnits: "SI (dimensional)",
 				Validity:    "prefilming airblast; " + rangeCommon,
 				Ranges:      []Range{airblastVelocity, alrRange},
-				Source:      "Rizk, N. K. & Lefebvre, A. H., J. Eng. Power 102 (1980) 706 or AIAA J. 21 (1983) 1139 (which one is uncertain)",
-				Needs:       inPrefilmerD,
+				Provenance: unconfirmed(Citation{Authors: "Rizk, N. K. & Lefebvre, A. H.", Journal: "ASME J. Eng. Power", Year: 1980, Volume: "102", Pages: "706"},
+					"which of their prefilming papers (this one or AIAA J. 21 (1983) 1139) gives this form is not settled; "+
+						"the two prefilming forms here differ by a factor of about 2.9 at the same point"),
+				Needs: inPrefilmerD,
 			},
 			needs: needPrefilmer,
 			smd: func(pt *point) float64 {
@@ -416,9 +430,10 @@ func airblastFamily() *family {
 				FittedUnits: "dimensionally consistent",
 				Validity:    "three similar atomizers, lip diameters 19.05, 38.10 and 76.20 mm (abstract, read); other bounds " + rangeCommon,
 				Ranges: []Range{airblastVelocity, alrRange,
-					{Quantity: inPrefilmerD, Min: 0.019, Max: 0.077, Source: "lip diameters of the tested atomizers (abstract read, REFERENCE-DATA §5.5)"}},
-				Source: "El-Shanawany, M. S. & Lefebvre, A. H., J. Energy 4(4) (1980) 184",
-				Needs:  inPrefilmerD + ", " + inHydraulicD,
+					{Quantity: inPrefilmerD, Min: 0.019, Max: 0.077, Source: "lip diameters of the tested atomizers, read in the paper's abstract"}},
+				Provenance: unconfirmed(Citation{Authors: "El-Shanawany, M. S. & Lefebvre, A. H.", Journal: "J. Energy", Year: 1980, Volume: "4(4)", Pages: "184"},
+					"the abstract (lip diameters 19.05, 38.10 and 76.20 mm, a dimensionally correct expression) was read, the expression was not"),
+				Needs: inPrefilmerD + ", " + inHydraulicD,
 			},
 			needs: func(pt *point) error {
 				if err := needPrefilmer(pt); err != nil {
@@ -442,7 +457,7 @@ func airblastFamily() *family {
 				FittedUnits: "SI (dimensional)",
 				Validity:    "plain-jet airblast; " + rangeCommon,
 				Ranges:      []Range{airblastVelocity, alrRange},
-				Source:      "Lorenzetto, G. E. & Lefebvre, A. H., AIAA J. 15(7) (1977) 1006",
+				Provenance:  unconfirmed(Citation{Authors: "Lorenzetto, G. E. & Lefebvre, A. H.", Journal: "AIAA J.", Year: 1977, Volume: "15(7)", Pages: "1006"}, ""),
 				Needs:       inMassFlow + ", " + inOrificeD,
 			},
 			needs: func(pt *point) error {
@@ -516,7 +531,12 @@ func rotaryFamily() *family {
 			Validity: "direct-drop regime only (low flow); other authors quote K from about 2.7 to 4. " +
 				"The flow limit of the regime is not recalled, so it is not checked; speed bound " + rangeCommon,
 			Ranges: []Range{{Quantity: inSpeed, Min: 500, Max: 50000, Source: rangeCommon}},
-			Source: "Walton, W. H. & Prewett, W. C., Proc. Phys. Soc. B 62 (1949) 341",
+			Provenance: checkedAgainst(Citation{Authors: "Walton, W. H. & Prewett, W. C.",
+				Title:   "The production of sprays and mists of uniform drop size by means of spinning disc type sprayers",
+				Journal: "Proc. Phys. Soc. B", Year: 1949, Volume: "62", Pages: "341"},
+				"the paper's abstract (discovery.researcher.life record): d = 3.8 (T/(D ρ))^½/ω, with T the surface tension, "+
+					"D the disc diameter and ω its angular velocity, for drops from 3 mm down to 15 µm",
+				"the abstract calls the equation approximate; other authors quote the constant from about 2.7 to 4"),
 		},
 		smd: func(pt *point) float64 {
 			return waltonPrewettDiameter(pt.p.SurfaceTension, pt.p.LiquidDensity, pt.omega(), pt.in[inDiskD])
@@ -549,7 +569,10 @@ func ultrasonicFamily() *family {
 			FittedUnits: "dimensionally consistent",
 			Validity:    "capillary-wave atomization at low flow; frequency bound " + rangeCommon,
 			Ranges:      []Range{{Quantity: inFrequency, Min: 1e4, Max: 3e6, Source: rangeCommon}},
-			Source:      "Lang, R. J., J. Acoust. Soc. Am. 34(1) (1962) 6 (citation read; form from memory)",
+			Provenance: checkedAgainst(Citation{Authors: "Lang, R. J.", Title: "Ultrasonic atomization of liquids", Journal: "J. Acoust. Soc. Am.", Year: 1962, Volume: "34(1)", Pages: "6–8"},
+				"the paper's abstract (doi:10.1121/1.1909020): the number-median diameter is 0.34 of the capillary wavelength, "+
+					"which Kelvin's equation gives from the exciting frequency",
+				"the abstract does not print the wavelength formula; λ_c = (8π σ/(ρ_L f²))^(1/3) was not checked against the paper"),
 		},
 		smd: func(pt *point) float64 {
 			return langDiameter(pt.p.SurfaceTension, pt.p.LiquidDensity, pt.in[inFrequency])
@@ -560,8 +583,8 @@ func ultrasonicFamily() *family {
 }
 
 // noEffervescentSMD is shown in place of an SMD for effervescent atomizers.
-const noEffervescentSMD = "no verified correlation available: the Lund, Sojka, Lefebvre & Gosselin (1993) model is not recalled " +
-	"reliably (REFERENCE-DATA §5.8), so no SMD is given"
+const noEffervescentSMD = "no verified correlation available: the SMD model of Lund, Sojka, Lefebvre & Gosselin " +
+	"(Atomization and Sprays 3(1) (1993) 77–89) could not be confirmed in a published source here, so only the flow is given"
 
 func effervescentFamily() *family {
 	f := &family{
@@ -588,12 +611,16 @@ func effervescentFamily() *family {
 // quantitySMD labels correlations that predict the Sauter mean diameter.
 const quantitySMD = "SMD (D32)"
 
-// finishFamily copies the correlation descriptions into the family info and
-// stamps each with its verification status.
+// ntRange labels the Nukiyama–Tanasawa property bounds.
+const ntRange = "property bounds of the original tests, not confirmed in a published source here"
+
+// finishFamily copies the correlation descriptions into the family info,
+// with Source and Status taken from each correlation's provenance record.
 func finishFamily(f *family) {
 	f.info.Correlations = make([]CorrelationInfo, len(f.corrs))
 	for i, c := range f.corrs {
-		c.info.Status = memoryStatus
+		c.info.Source = c.info.Provenance.Citation.String()
+		c.info.Status = c.info.Provenance.Status
 		f.info.Correlations[i] = c.info
 	}
 }

@@ -15,7 +15,8 @@ func weber(rho, u, l, sigma float64) float64 { return rho * u * u * l / sigma }
 // ohnesorge is Oh = μ/(ρ σ L)^0.5.
 func ohnesorge(mu, rho, sigma, l float64) float64 { return mu / math.Sqrt(rho*sigma*l) }
 
-const reitzSource = "Reitz (1978) jet regimes as quoted by Lin & Reitz (1998), Annu. Rev. Fluid Mech. 30, 85; from memory, not checked"
+// The regime bounds are from memory, not checked against the printed source.
+const reitzSource = "Reitz (1978) jet regimes as quoted by Lin & Reitz (1998), Annu. Rev. Fluid Mech. 30, 85; bounds not checked here"
 
 // jetRegime classifies a round liquid jet by its gas Weber number:
 // Rayleigh We_G < 0.4 (or < 1.2 + 3.41 Oh^0.9), first wind-induced up to 13,

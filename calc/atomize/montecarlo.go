@@ -148,7 +148,9 @@ func MonteCarlo(familyID, correlationID string, inputs map[string]float64, props
 		out.Warnings = append(out.Warnings, fmt.Sprintf("%d of %d evaluated samples lie outside the validity range of %s",
 			out.OutOfRange, out.Samples, c.info.ID))
 	}
-	out.Warnings = append(out.Warnings, memoryWarning)
+	if !c.info.Provenance.Checked {
+		out.Warnings = append(out.Warnings, c.info.ID+": "+c.info.Provenance.Status)
+	}
 	return out, nil
 }
 

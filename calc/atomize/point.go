@@ -209,8 +209,8 @@ func resolvePlainOrifice(pt *point) error {
 			return 0, valid.Errorf(inputField(inOrificeL), pt.in[inOrificeL],
 				"the orifice is too long for the Lichtarowicz et al. (1965) discharge coefficient (C_D = %.3g)", lichtarowicz)
 		}
-		pt.notef("C_D = %.4f from the high-Reynolds-number limit of Lichtarowicz, Duggins & Markland (1965), "+
-			"form from memory (REFERENCE-DATA §5.4); at low Reynolds number the real C_D is lower", lichtarowicz)
+		pt.notef("C_D = %.4f from the high-Reynolds-number limit of %s (%s); at low Reynolds number the real C_D is lower",
+			lichtarowicz, relations[RelLichtarowicz].Citation.String(), relations[RelLichtarowicz].Status)
 		return lichtarowicz, nil
 	}
 	if err := resolveLiquidFlow(pt, "orifice_length_m", fallback); err != nil {
@@ -218,7 +218,7 @@ func resolvePlainOrifice(pt *point) error {
 	}
 	usedLength := !pt.has(inMassFlow) && !pt.has(inFlowNumber) && !pt.has(inCD)
 	if pt.has(inOrificeL) && !usedLength && lichtarowicz > 0 {
-		pt.notef("for comparison, Lichtarowicz, Duggins & Markland (1965) give C_D,max = %.4f for l0/d0 = %.3g (form from memory)",
+		pt.notef("for comparison, Lichtarowicz, Duggins & Markland (1965) give C_D,max = %.4f for l0/d0 = %.3g",
 			lichtarowicz, pt.in[inOrificeL]/pt.in[inOrificeD])
 	}
 	return nil
@@ -238,18 +238,23 @@ func resolvePressureSwirl(pt *point) error {
 			return 0, nil
 		}
 		cd := rizkLefebvreDischargeCoefficient(pt.in[inPortArea], pt.in[inSwirlD], pt.in[inOrificeD])
-		pt.notef("C_D = %.4f from the swirl-chamber geometry, Rizk & Lefebvre (1985), %s", cd, memoryStatus)
+		pt.notef("C_D = %.4f from the swirl-chamber geometry, %s", cd, relationSource(RelRizkLefebvreCD))
 		return cd, nil
 	}
 	if err := resolveLiquidFlow(pt, "swirl_chamber_diameter_m with inlet_port_area_m2", fallback); err != nil {
 		return err
 	}
 	p := pt.p
-	pt.film = rizkLefebvreFilmThickness(pt.d0, pt.mdot, p.LiquidViscosity, p.LiquidDensity, pt.dp)
+	// The measured-film constant 2.7 (Suyari & Lefebvre 1986) is the one
+	// open code citing Wang & Lefebvre (1987) feeds to their SMD; Rizk &
+	// Lefebvre's theoretical 3.66 is reported beside it.
+	pt.film = suyariLefebvreFilmThickness(pt.d0, pt.fn, p.LiquidViscosity, p.LiquidDensity, pt.dp)
 	pt.filmKnown = true
-	pt.filmSource = "Rizk & Lefebvre (1985), J. Propulsion Power 1(3) 193; " + memoryStatus
-	pt.notef("Suyari & Lefebvre (1986) give a film thickness of %.4g µm at this point (%s)",
-		suyariLefebvreFilmThickness(pt.d0, pt.fn, p.LiquidViscosity, p.LiquidDensity, pt.dp)*1e6, memoryStatus)
+	pt.filmSource = relationSource(RelSuyariFilm)
+	pt.notef("film thickness %.4g µm (constant 2.7, Suyari & Lefebvre 1986) is the one fed to Wang & Lefebvre (1987); "+
+		"Rizk & Lefebvre's (1985) theoretical constant 3.66 gives %.4g µm (%s)",
+		pt.film*1e6, rizkLefebvreFilmThickness(pt.d0, pt.mdot, p.LiquidViscosity, p.LiquidDensity, pt.dp)*1e6,
+		relations[RelRizkLefebvreFilm].Status)
 	if pt.has(inConeAngle) {
 		pt.cone, pt.coneKnown, pt.coneSource = pt.in[inConeAngle], true, "input (cone_angle_deg)"
 	}
@@ -257,12 +262,12 @@ func resolvePressureSwirl(pt *point) error {
 		cone := rizkLefebvreConeAngle(pt.in[inPortArea], pt.in[inSwirlD], pt.d0, pt.dp, p.LiquidDensity, p.LiquidViscosity)
 		switch {
 		case pt.coneKnown:
-			pt.notef("Rizk & Lefebvre (1985) give a full cone angle of %.1f deg from the geometry (%s)", cone, memoryStatus)
+			pt.notef("Rizk & Lefebvre (1985) give a full cone angle of %.1f deg from the geometry (%s)", cone, relations[RelRizkLefebvreCone].Status)
 		case cone >= 180:
 			pt.warnf("Rizk & Lefebvre (1985) give a cone angle of %.0f deg here, which is not physical; no cone angle is reported", cone)
 		default:
 			pt.cone, pt.coneKnown = cone, true
-			pt.coneSource = "Rizk & Lefebvre (1985), J. Propulsion Power 1(3) 193; " + memoryStatus
+			pt.coneSource = relationSource(RelRizkLefebvreCone)
 		}
 	}
 	return nil
@@ -303,7 +308,7 @@ func resolveEffervescent(pt *point) error {
 	if err := resolveLiquidFlow(pt, "", nil); err != nil {
 		return err
 	}
-	pt.notef("flow number and discharge coefficient are the liquid-only definitions (REFERENCE-DATA §5.1); " +
+	pt.notef("flow number and discharge coefficient are the liquid-only definitions; " +
 		"the gas in the orifice raises the pressure drop, which these definitions do not model")
 	return nil
 }

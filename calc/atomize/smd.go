@@ -2,8 +2,10 @@ package atomize
 
 import "math"
 
-// SMD correlations. Every form in this file is a form from memory
-// (REFERENCE-DATA §5), not yet checked against the printed source. Arguments
+// SMD correlations. Each correlation's provenance record (family.go) says
+// which forms were compared with an independent open text that cites the
+// original and which are still forms from memory, not checked against the
+// printed source; docs/methods-atomize.md lists what was read. Arguments
 // are SI (σ N/m, μ Pa s, ν m²/s, ρ kg/m³, ṁ kg/s, ΔP Pa, lengths m, speeds
 // m/s) and results are in m, unless a function says otherwise. The functions
 // do not check their arguments; Evaluate validates them first.
@@ -12,7 +14,8 @@ import "math"
 //
 //	SMD = 7.3 σ^0.6 ν_L^0.2 ṁ_L^0.25 ΔP_L^−0.4
 //
-// Dimensional, SI. Fitted to low-viscosity fuels (REFERENCE-DATA §5.2).
+// Dimensional, SI. Fitted to low-viscosity fuels. Form checked against
+// open code that cites the paper (provenance record).
 func radcliffeSMD(sigma, nuL, mdot, dp float64) float64 {
 	return 7.3 * math.Pow(sigma, 0.6) * math.Pow(nuL, 0.2) * math.Pow(mdot, 0.25) * math.Pow(dp, -0.4)
 }
@@ -55,8 +58,8 @@ func wangLefebvreSMD(sigma, muL, rhoL, rhoA, dp, t, halfAngle float64) float64 {
 //
 //	SMD = 500 d0^1.2 ν_L^0.2 / U_L
 //
-// evaluated in SI as recalled; the units the constant belongs to are
-// uncertain (REFERENCE-DATA §5.4 and §8), so treat the result as unverified.
+// in SI (d0 m, ν_L m²/s, U_L m/s, SMD m), as open code that cites the paper
+// by title evaluates it.
 func merringtonRichardsonSMD(d0, nuL, uL float64) float64 {
 	return 500 * math.Pow(d0, 1.2) * math.Pow(nuL, 0.2) / uL
 }
@@ -65,7 +68,7 @@ func merringtonRichardsonSMD(d0, nuL, uL float64) float64 {
 //
 //	SMD = 3330 d0^0.3 μ_L^0.07 ρ_L^−0.648 σ^−0.15 U_L^−0.55 μ_A^0.78 ρ_A^−0.052
 //
-// Dimensional, SI as recalled.
+// Dimensional, SI; form from memory, the units of the constant not confirmed.
 func harmonSMD(d0, muL, rhoL, sigma, uL, muA, rhoA float64) float64 {
 	return 3330 * math.Pow(d0, 0.3) * math.Pow(muL, 0.07) * math.Pow(rhoL, -0.648) *
 		math.Pow(sigma, -0.15) * math.Pow(uL, -0.55) * math.Pow(muA, 0.78) * math.Pow(rhoA, -0.052)
@@ -74,12 +77,18 @@ func harmonSMD(d0, muL, rhoL, sigma, uL, muA, rhoA float64) float64 {
 // elkotbSMD is Elkotb (1982), Prog. Energy Combust. Sci. 8, 61, plain-orifice
 // diesel injection:
 //
-//	SMD = 3.08 ν_L^0.385 (σ ρ_L)^0.737 ρ_A^0.06 ΔP_L^−0.54
+//	SMD[µm] = 6156 ν_L^0.385 (σ ρ_L)^0.737 ρ_A^0.06 ΔP_L[bar]^−0.54
 //
-// Dimensional, SI as recalled.
+// with ν_L in m²/s, σ N/m, ρ kg/m³, as open code citing the paper gives it.
+// In SI (ΔP_L in Pa, SMD in m) the constant is 6156e-6 · (1e5)^0.54 =
+// 3.0853 (elkotbSI); an earlier recollection rounded it to 3.08.
 func elkotbSMD(nuL, sigma, rhoL, rhoA, dp float64) float64 {
-	return 3.08 * math.Pow(nuL, 0.385) * math.Pow(sigma*rhoL, 0.737) * math.Pow(rhoA, 0.06) * math.Pow(dp, -0.54)
+	return elkotbSI * math.Pow(nuL, 0.385) * math.Pow(sigma*rhoL, 0.737) * math.Pow(rhoA, 0.06) * math.Pow(dp, -0.54)
 }
+
+// elkotbSI is Elkotb's constant 6156 (SMD µm, ΔP_L bar) converted exactly to
+// SMD in m and ΔP_L in Pa.
+var elkotbSI = 6156e-6 * math.Pow(1e5, 0.54)
 
 // rizkLefebvrePrefilmingSMD is Rizk & Lefebvre (1980/1983), prefilming
 // airblast (the exact paper is uncertain: J. Eng. Power 102 (1980) 706 or
@@ -123,8 +132,8 @@ func lorenzettoLefebvreSMD(sigma, muL, rhoL, rhoA, mdot, uR, alr, d0 float64) fl
 }
 
 // nukiyamaTanasawaCGS is the Nukiyama & Tanasawa (1939), Trans. Soc. Mech.
-// Eng. Japan 5, 62, air-blast SMD in its fitted mixed cgs units
-// (REFERENCE-DATA §4.5):
+// Eng. Japan 5, 62, air-blast SMD in its fitted mixed cgs units (form from
+// memory, not checked against the printed source):
 //
 //	SMD[µm] = (585/U_R) (σ/ρ_L)^0.5 + 597 [μ_L/(σ ρ_L)^0.5]^0.45 (1000 Q_L/Q_A)^1.5
 //
@@ -147,14 +156,14 @@ func nukiyamaTanasawaSMD(sigma, muL, rhoL, uR, qRatio float64) float64 {
 //
 //	d = (K/ω) (σ/(ρ_L D))^0.5,   K = 3.8
 //
-// ω in rad/s, D disk diameter (m). Other authors quote K from about 2.7 to 4
-// (REFERENCE-DATA §5.6).
+// ω in rad/s, D disk diameter (m). Form and constant as the paper's abstract
+// gives them; other authors quote K from about 2.7 to 4.
 func waltonPrewettDiameter(sigma, rhoL, omega, disk float64) float64 {
 	return 3.8 / omega * math.Sqrt(sigma/(rhoL*disk))
 }
 
 // capillaryWavelength is λ_c = (8π σ/(ρ_L f²))^(1/3) in m, f the driving
-// frequency in Hz (Lang 1962, REFERENCE-DATA §5.7).
+// frequency in Hz (Lang 1962; form from memory).
 func capillaryWavelength(sigma, rhoL, f float64) float64 {
 	return math.Cbrt(8 * math.Pi * sigma / (rhoL * f * f))
 }

@@ -12,7 +12,7 @@ import (
 
 // Inverse sizing is checked by substitution: the solved input, put back
 // into Evaluate, must reproduce the target within rel 1e-6 (an identity
-// check; the forms are from memory, REFERENCE-DATA §5).
+// check, independent of whether the forms match the papers).
 func TestSolveSubstitution(t *testing.T) {
 	const tol = 1e-6
 	cases := []struct {
@@ -82,8 +82,7 @@ func TestSolveSubstitution(t *testing.T) {
 
 func TestSolveClosedForm(t *testing.T) {
 	// Lefebvre (1987) SMD ∝ ΔP^−0.5 at fixed ṁ_L, so the ΔP giving SMD_t is
-	// ΔP_1 (SMD_1/SMD_t)² (algebra on the recalled form, REFERENCE-DATA
-	// §5.2); tolerance rel 1e-9.
+	// ΔP_1 (SMD_1/SMD_t)² (algebra on the form); tolerance rel 1e-9.
 	in := map[string]float64{"mass_flow_kg_s": 0.01, "orifice_diameter_m": 1e-3}
 	smd1 := lefebvre1987SMD(0.0275, 1.3e-3, 0.01, 1e6, 1.2)
 	target := 40e-6

@@ -123,8 +123,12 @@ func Sweep(familyID string, inputs map[string]float64, props Properties, variabl
 			s.SMD[i], s.Valid[i], s.InRange[i] = e.SMD, true, e.InRange
 		}
 	}
-	if len(f.corrs) > 0 {
-		res.Warnings = append(res.Warnings, memoryWarning)
+	var infos []SMDEstimate
+	for _, c := range f.corrs {
+		infos = append(infos, SMDEstimate{Correlation: c.info.ID, Provenance: c.info.Provenance})
+	}
+	if w := unconfirmedWarning(infos); w != "" {
+		res.Warnings = append(res.Warnings, w)
 	}
 	return res, nil
 }

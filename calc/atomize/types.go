@@ -42,9 +42,12 @@ type CorrelationInfo struct {
 	FittedUnits string  `json:"fitted_units"`
 	Validity    string  `json:"validity"`
 	Ranges      []Range `json:"ranges"`
-	Source      string  `json:"source"`
-	Status      string  `json:"status"` // verification status
+	Source      string  `json:"source"` // Provenance.Citation in one line
+	Status      string  `json:"status"` // Provenance.Status
 	Needs       string  `json:"needs"`  // inputs it needs beyond the family's required ones
+	// Provenance is the published citation and how far the form was
+	// checked; Source and Status are copied from it.
+	Provenance Provenance `json:"provenance"`
 }
 
 // FamilyInfo describes one atomizer family.
@@ -62,13 +65,14 @@ type FamilyInfo struct {
 
 // SMDEstimate is one correlation's drop size at the operating point.
 type SMDEstimate struct {
-	Correlation string   `json:"correlation"`
-	SMD         float64  `json:"smd_m"`
-	Quantity    string   `json:"quantity"` // "SMD (D32)" unless the correlation predicts another diameter
-	InRange     bool     `json:"in_range"`
-	Source      string   `json:"source"`
-	Status      string   `json:"status"`
-	Warnings    []string `json:"warnings,omitempty"`
+	Correlation string     `json:"correlation"`
+	SMD         float64    `json:"smd_m"`
+	Quantity    string     `json:"quantity"` // "SMD (D32)" unless the correlation predicts another diameter
+	InRange     bool       `json:"in_range"`
+	Source      string     `json:"source"`
+	Status      string     `json:"status"`
+	Provenance  Provenance `json:"provenance"`
+	Warnings    []string   `json:"warnings,omitempty"`
 }
 
 // Group is a dimensionless group with the regime it indicates.

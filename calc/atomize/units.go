@@ -24,8 +24,8 @@ const (
 )
 
 // flowNumberUSPerSI is the factor k in FN_US = k · ρ_L^0.5 · FN_SI, where
-// FN_US = ṁ[lb/h]/ΔP[psi]^0.5 and FN_SI = ṁ/(ρ_L ΔP)^0.5 (REFERENCE-DATA
-// §5.1). Derivation: ṁ[lb/h] = ṁ[kg/s]·Hour/Pound and ΔP[psi] = ΔP[Pa]/PSI,
+// FN_US = ṁ[lb/h]/ΔP[psi]^0.5 and FN_SI = ṁ/(ρ_L ΔP)^0.5 (definitions).
+// Derivation: ṁ[lb/h] = ṁ[kg/s]·Hour/Pound and ΔP[psi] = ΔP[Pa]/PSI,
 // so k = Hour/Pound · PSI^0.5 = 6.59016E5 (kg/m³)^-0.5 per m². Lefebvre
 // states the factor as 0.66E6 (from memory).
 var flowNumberUSPerSI = Hour / Pound * math.Sqrt(PSI)

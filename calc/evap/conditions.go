@@ -34,6 +34,12 @@ type Conditions struct {
 	// AccommodationCoefficient is the mass accommodation coefficient α of
 	// the Fuchs–Sutugin factor, 0 < α ≤ 1; zero means 1.
 	AccommodationCoefficient float64
+
+	// Equilibrium, when set, gives the flat-surface vapor pressure at the
+	// gas pressure (Poynting factor, fugacity coefficients, dissolved gas)
+	// and the surface's critical limit; nil takes p_sat (see
+	// SurfaceEquilibrium).
+	Equilibrium SurfaceEquilibrium
 }
 
 // Validate checks every field and returns all problems at once as

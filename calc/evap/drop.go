@@ -23,6 +23,7 @@ const (
 	warnKelvinSmall
 	warnContinuumAtHighKn
 	warnEnhancementUndefined
+	warnTranscritical
 )
 
 func warningText(flags uint) []string {
@@ -42,6 +43,7 @@ func warningText(flags uint) []string {
 	add(warnASPrSc, "Prandtl or Schmidt number outside 1–3, the fitted range of the Abramzon–Sirignano F(B)")
 	add(warnKelvinSmall, "radius below 5 nm: the Kelvin equation is only indicative there")
 	add(warnContinuumAtHighKn, "Knudsen number above 0.1 with the transition correction off: the continuum rate overstates evaporation")
+	add(warnTranscritical, "the surface reaches the mixture critical point of liquid and gas: the steady temperature is held just below it, where the evaporation model stops applying")
 	add(warnEnhancementUndefined, "a flat surface would not evaporate here (it would condense or stay in equilibrium), so the curvature enhancement is undefined (reported as 0)")
 	return w
 }
@@ -51,7 +53,7 @@ type DropState struct {
 	Diameter           float64 // d, m
 	SurfaceTemperature float64 // T_s, K
 	LaplacePressure    float64 // 2σ/r, Pa
-	VaporPressure      float64 // equilibrium vapor pressure over the drop, S·p_sat, Pa
+	VaporPressure      float64 // equilibrium vapor partial pressure over the drop, S times the flat value (p_sat without Equilibrium), Pa
 	KelvinRatio        float64 // S = p_r/p_sat (1 when Curvature is off)
 	Knudsen            float64 // λ/r
 	Regime             string  // see Regime
@@ -68,15 +70,21 @@ type DropState struct {
 	TransitionFactor         float64 // Fuchs–Sutugin factor applied (1 when Transition is off)
 	HeatRate                 float64 // heat conducted from the gas to the surface, W
 	HeatToLiquid             float64 // HeatRate − MassRate·L, W; zero at the steady temperature
-	Warnings                 []string
+	// Transcritical is set when the steady heat balance has no root below
+	// the surface's critical limit: the state is the one just below it,
+	// where the model stops (see ErrTranscritical).
+	Transcritical bool
+	Warnings      []string
 }
 
 // dropEval is the allocation-free core of DropState used inside solvers.
 type dropEval struct {
 	mdot, heatToLiquid, q    float64
 	s, psat, pv, sigma, rhoL float64
+	flat                     float64 // flat-surface equilibrium partial pressure, Pa
 	lk, ys, bm, bt, kn, fs   float64
 	re, sh, nu, lat          float64
+	conductance              float64 // ∂Q/∂(T_∞ − T_s) at fixed film: Q/(T_∞ − T_s), W/K
 	flags                    uint
 }
 
@@ -102,8 +110,8 @@ func (c *Conditions) evaluate(d, ts float64, curved bool) (dropEval, error) {
 // liquidAt holds the liquid properties at one surface temperature, so that
 // a sweep over diameters at a fixed temperature evaluates them once.
 type liquidAt struct {
-	ts, psat, sigma, rhoL, lat float64
-	ok                         bool
+	ts, psat, sigma, rhoL, lat, flat float64
+	ok                               bool
 }
 
 // evaluateAt is evaluate with an optional cache of the liquid properties
@@ -115,17 +123,29 @@ func (c *Conditions) evaluateAt(d, ts float64, curved bool, cache *liquidAt) (dr
 	r := d / 2
 	mv := l.MolarMass()
 	if cache != nil && cache.ok && cache.ts == ts {
-		e.psat, e.sigma, e.rhoL, e.lat = cache.psat, cache.sigma, cache.rhoL, cache.lat
+		e.psat, e.sigma, e.rhoL, e.lat, e.flat = cache.psat, cache.sigma, cache.rhoL, cache.lat, cache.flat
 	} else {
 		e.psat = l.SaturationPressure(ts)
 		e.sigma = l.SurfaceTension(ts)
 		e.rhoL = l.Density(ts)
 		e.lat = l.LatentHeat(ts)
+		if err := c.checkCritical(ts); err != nil {
+			return e, err
+		}
 		if err := propertyCheck(ts, e.psat, e.sigma, e.rhoL, e.lat, mv); err != nil {
 			return e, err
 		}
+		e.flat = e.psat
+		if c.Equilibrium != nil {
+			f, err := c.Equilibrium.FlatVaporPressure(ts)
+			if err != nil {
+				return e, err
+			}
+			e.flat = f
+			e.lat *= c.Equilibrium.LatentHeatFactor(ts)
+		}
 		if cache != nil {
-			*cache = liquidAt{ts: ts, psat: e.psat, sigma: e.sigma, rhoL: e.rhoL, lat: e.lat, ok: true}
+			*cache = liquidAt{ts: ts, psat: e.psat, sigma: e.sigma, rhoL: e.rhoL, lat: e.lat, flat: e.flat, ok: true}
 		}
 	}
 	e.lk = KelvinLength(e.sigma, mv/e.rhoL, ts)
@@ -136,7 +156,7 @@ func (c *Conditions) evaluateAt(d, ts float64, curved bool, cache *liquidAt) (dr
 			e.flags |= warnKelvinSmall
 		}
 	}
-	e.pv = e.s * e.psat
+	e.pv = e.s * e.flat
 	xs := e.pv / c.Pressure
 	if xs > maxSurfaceMoleFraction {
 		xs = maxSurfaceMoleFraction
@@ -228,14 +248,32 @@ func (c *Conditions) evaluateAt(d, ts float64, curved bool, cache *liquidAt) (dr
 		stefan = phiLnBM / bte
 	}
 	e.q = e.fs * math.Pi * d * k * e.nu * (c.GasTemperature - ts) * stefan
+	e.conductance = e.fs * math.Pi * d * k * e.nu * stefan
 	e.heatToLiquid = e.q - e.mdot*e.lat
 	return e, nil
 }
 
+// PropertyLimitError is the error of a rate evaluated at a surface
+// temperature where one of the liquid's properties is not usable: its
+// latent heat or surface tension has reached zero at the critical point,
+// or a fit has left the range where it is a number. It is a physical
+// limit of the model (the surface has reached the liquid's critical
+// region), which the caller words for the user; Err is the field error
+// naming the property.
+type PropertyLimitError struct {
+	Property    string  // the property, as in Err's field: "liquid.latent_heat_j_kg"
+	Temperature float64 // the surface temperature reached, K
+	Err         error
+}
+
+func (e *PropertyLimitError) Error() string { return e.Err.Error() }
+func (e *PropertyLimitError) Unwrap() error { return e.Err }
+
 func propertyCheck(ts, psat, sigma, rhoL, lat, mv float64) error {
 	bad := func(name string, v float64, positive bool) error {
 		if math.IsNaN(v) || math.IsInf(v, 0) || v < 0 || (positive && v == 0) {
-			return valid.Errorf(name, v, "liquid property is not a usable number at %s K", valid.FormatValue(ts))
+			return &PropertyLimitError{Property: name, Temperature: ts,
+				Err: valid.Errorf(name, v, "liquid property is not a usable number at %s K", valid.FormatValue(ts))}
 		}
 		return nil
 	}

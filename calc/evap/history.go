@@ -23,6 +23,15 @@ type HistoryOptions struct {
 	MaxTime float64
 	// Steps is the number of log-spaced time points after t = 0; zero means 200.
 	Steps int
+	// SauterFactors, when not nil, gives per bin the ratio c_i of the
+	// Sauter diameter of the drops the bin stands for to its
+	// representative diameter d0_i. D32 then counts bin i's drops at c_i
+	// times its diameter (they shrink in proportion with the
+	// representative drop, the mass following it exactly), with number
+	// weight w_i/(c_i d0_i)³: D32 = Σ w_i f_i / Σ w_i f_i/(c_i d_i), f_i
+	// the bin's remaining mass fraction, which at t = 0 is the
+	// classes' Sauter mean (Σ w_i / Σ w_i/(c_i d0_i)). Nil means 1.
+	SauterFactors []float64
 }
 
 // History is the evaporation of a spray given as size bins.
@@ -34,7 +43,16 @@ type History struct {
 	// T50, T90, T99 are the times at which 50, 90 and 99 % of the mass has
 	// evaporated, s; +Inf (with a warning) when never reached.
 	T50, T90, T99 float64
-	Warnings      []string
+	// CriticalTime is, per bin, the time (s) at which its surface reached
+	// the mixture critical point on its transient heating path, or −1;
+	// nil without transient heating.
+	CriticalTime []float64
+	Warnings     []string
+	// SurfaceTemperatureMin and Max bound the surface temperatures the
+	// transient heating paths passed through (from the injection
+	// temperature to where each class joined its steady temperature), K;
+	// both 0 without transient heating.
+	SurfaceTemperatureMin, SurfaceTemperatureMax float64
 }
 
 // Distance converts the time grid into distance travelled at a constant
@@ -123,7 +141,7 @@ func (c *Conditions) NewSpray(diameters, volumeFractions []float64, opts History
 	if err := valid.NonNegative("history.max_time_s", opts.MaxTime); err != nil {
 		return nil, err
 	}
-	tb, _, err := c.boilingTemperature()
+	tb, _, err := c.upperTemperature()
 	if err != nil {
 		return nil, err
 	}
@@ -146,10 +164,19 @@ func (c *Conditions) NewSpray(diameters, volumeFractions []float64, opts History
 		// Cold drops may first grow by condensation before joining the table.
 		topFactor = 1.5
 	}
+	if opts.SauterFactors != nil && len(opts.SauterFactors) != len(diameters) {
+		return nil, valid.Errorf("history.sauter_factors", float64(len(opts.SauterFactors)), "must have one factor per bin (%d)", len(diameters))
+	}
+	for _, f := range opts.SauterFactors {
+		if err := valid.Positive("history.sauter_factors", f); err != nil {
+			return nil, err
+		}
+	}
 	sp, err := c.newSprayPaths(diameters, w, opts.SurfaceTemperature, tb, topFactor)
 	if err != nil {
 		return nil, err
 	}
+	sp.sauter = opts.SauterFactors
 	return &Spray{c: c, opts: opts, steps: steps, sp: sp, steady: sp.save()}, nil
 }
 
@@ -186,13 +213,17 @@ func (s *Spray) HistoryContext(ctx context.Context, maxTime float64) (History, e
 		if err := sp.addTransient(opts.InjectionTemperature, maxTime); err != nil {
 			return h, err
 		}
+		h.SurfaceTemperatureMin, h.SurfaceTemperatureMax = sp.transientTemperatureRange()
+		h.CriticalTime = sp.criticalTimes()
 	}
 	// Every drop's path to zero size passes radii below 5 nm, and for a
 	// volatile liquid radii where S·p_sat exceeds the gas pressure; those
 	// last nanometres take a negligible share of the lifetime, so the flags
 	// they raise say nothing about the spray. The per-class states report
 	// them where they matter.
-	h.Warnings = warningText(sp.rate.flags &^ (warnKelvinSmall | warnSurfaceCapped))
+	// A surface held at the mixture critical point is reported per class
+	// (DropState.Transcritical, History.CriticalTime), not here.
+	h.Warnings = warningText(sp.rate.flags &^ (warnKelvinSmall | warnSurfaceCapped | warnTranscritical))
 	if sp.heldWeight > 0 {
 		h.Warnings = append(h.Warnings, fmt.Sprintf("%.3g %% of the spray volume is in drops that do not evaporate (at or above the Kelvin equilibrium size, or not within the time considered); without transient heating they are held at their initial size (growth is not modelled)", 100*sp.heldWeight))
 	}
@@ -270,6 +301,7 @@ type sprayPaths struct {
 	table        *shrinkTable
 	d0, w        []float64
 	n32          []float64 // number weights w/d0³
+	sauter       []float64 // HistoryOptions.SauterFactors (nil: 1)
 	life         []float64 // total evaporation time per bin, +Inf when held
 	g0           []float64 // G at the point where the bin joins the table
 	join         []float64 // time at which the bin joins the table (0 without transient)
@@ -493,7 +525,11 @@ func (sp *sprayPaths) sweep(ts, evap, d32, dv50 []float64) error {
 				// Number weight is conserved: n_i d³ scales with the
 				// remaining mass, and d² follows from d.
 				s3 += v
-				s2 += v / d
+				if sp.sauter != nil {
+					s2 += v / (sp.sauter[i] * d)
+				} else {
+					s2 += v / d
+				}
 			}
 			sp.dNow[i] = d
 		}
@@ -519,6 +555,9 @@ func (sp *sprayPaths) sweepSteady(ts, evap, d32, dv50, vol []float64) error {
 	wOverD0 := make([]float64, n)
 	for i, d := range sp.d0 {
 		lnD0[i], wOverD0[i] = math.Log(d), sp.w[i]/d
+		if sp.sauter != nil {
+			wOverD0[i] = sp.w[i] / (sp.sauter[i] * d)
+		}
 	}
 	gone := 0 // bins [0, gone) have evaporated
 	evGone := 0.0

@@ -66,7 +66,7 @@ func (c *Conditions) LifetimeReport(d0 float64, opts LifetimeOptions) (LifetimeR
 	if err := valid.Positive("drop.diameter_m", d0); err != nil {
 		return res, err
 	}
-	tb, _, err := c.boilingTemperature()
+	tb, _, err := c.upperTemperature()
 	if err != nil {
 		return res, err
 	}
@@ -150,7 +150,10 @@ func (c *Conditions) LifetimeReport(d0 float64, opts LifetimeOptions) (LifetimeR
 // It exists only for a supersaturated far field (S_∞ > 1) with Curvature on;
 // ok is false otherwise (every size evaporates when S_∞ ≤ 1, none when S_∞ > 1
 // and the surface is flat). At equilibrium ṁ = 0, so with the steady
-// temperature Ts = T_∞. Source: the Kelvin equation (see KelvinRatio).
+// temperature Ts = T_∞. S_∞ is taken against the flat-surface equilibrium
+// at the gas pressure (Conditions.Equilibrium; p_sat without it), the
+// same vapor pressure the rates use. Source: the Kelvin equation (see
+// KelvinRatio).
 func (c *Conditions) EquilibriumRadius(Ts float64) (r float64, ok bool, err error) {
 	if err := c.Validate(); err != nil {
 		return 0, false, err
@@ -164,7 +167,7 @@ func (c *Conditions) EquilibriumRadius(Ts float64) (r float64, ok bool, err erro
 
 func (c *Conditions) equilibriumRadius(ts float64) (float64, bool) {
 	l := c.Liquid
-	ps := l.SaturationPressure(ts)
+	ps := c.flatPressure(ts)
 	sAmb := c.VaporMoleFraction * c.Pressure / ps
 	if !c.Curvature || !(sAmb > 1) || math.IsInf(sAmb, 0) {
 		return 0, false
@@ -208,13 +211,18 @@ func (r *rateFunc) temperature(d float64) (float64, error) {
 	}
 	dEff := math.Max(d, minSteadyDiameter)
 	t, err := r.c.steadyTemperature(dEff, r.tb, r.guess)
-	for i := 0; err != nil && !errors.Is(err, ErrBoiling) && i < 20 && dEff < 1e-6; i++ {
+	for i := 0; err != nil && !errors.Is(err, ErrBoiling) && !errors.Is(err, ErrTranscritical) && i < 20 && dEff < 1e-6; i++ {
 		dEff *= 2
 		t, err = r.c.steadyTemperature(dEff, r.tb, r.guess)
 	}
 	if err != nil && t == r.tb && t > 0 {
-		// Clamped at the boiling point: keep going just below it.
-		r.flags |= warnSurfaceCapped
+		// Clamped at the boiling point or the surface's critical limit:
+		// keep going just below it.
+		if errors.Is(err, ErrTranscritical) {
+			r.flags |= warnTranscritical
+		} else {
+			r.flags |= warnSurfaceCapped
+		}
 		t, err = math.Nextafter(r.tb, 0), nil
 	}
 	if err == nil {

@@ -53,6 +53,15 @@ func newODEStepper(f odeFunc, n int, rtol float64, atol []float64) *odeStepper {
 // accepted step it calls after(t, y, dy) with the new state and derivative;
 // when after returns true the integration stops. It returns the final time.
 // y is updated in place.
+//
+// An error of f at a trial stage (a stage state the step overshot to, such
+// as a drop temperature past the liquid's critical point or a negative
+// mass) rejects the step like a too-large error estimate: the step shrinks
+// by dpMinScale and is tried again, as a recoverable right-hand-side
+// failure is treated in adaptive solvers (Hindmarsh et al., ACM TOMS 31(3),
+// 2005, CVODE's recoverable f errors). Only an error at the starting state,
+// or one that persists until the step underflows, is returned; the latter
+// is the stage's own error, not errStepTooSmall.
 func (s *odeStepper) run(t0, tEnd float64, y []float64, h float64, after func(t float64, y, dy []float64) bool) (float64, error) {
 	n := len(y)
 	k := &s.k
@@ -60,11 +69,18 @@ func (s *odeStepper) run(t0, tEnd float64, y []float64, h float64, after func(t 
 	if err := s.f(t, y, k[0]); err != nil {
 		return t, err
 	}
+	var stageErr error // the last trial-stage error since the last accepted step
+	rejected := 0      // steps rejected in a row
 	for t < tEnd {
 		if t+h > tEnd {
 			h = tEnd - t
 		}
-		if h <= 1e-14*math.Abs(t) || h <= 0 {
+		// 0.2^100 = 1e-70: a hundred rejections in a row leave no step
+		// size that could still succeed.
+		if h <= 1e-14*math.Abs(t) || h <= 0 || rejected > 100 {
+			if stageErr != nil {
+				return t, stageErr
+			}
 			return t, errStepTooSmall
 		}
 		stage := func(dst []float64, c float64, coef ...float64) error {
@@ -77,26 +93,30 @@ func (s *odeStepper) run(t0, tEnd float64, y []float64, h float64, after func(t 
 			}
 			return s.f(t+c*h, s.yTmp, dst)
 		}
-		if err := stage(k[1], dpC2, dpA21); err != nil {
-			return t, err
+		err := stage(k[1], dpC2, dpA21)
+		if err == nil {
+			err = stage(k[2], dpC3, dpA31, dpA32)
 		}
-		if err := stage(k[2], dpC3, dpA31, dpA32); err != nil {
-			return t, err
+		if err == nil {
+			err = stage(k[3], dpC4, dpA41, dpA42, dpA43)
 		}
-		if err := stage(k[3], dpC4, dpA41, dpA42, dpA43); err != nil {
-			return t, err
+		if err == nil {
+			err = stage(k[4], dpC5, dpA51, dpA52, dpA53, dpA54)
 		}
-		if err := stage(k[4], dpC5, dpA51, dpA52, dpA53, dpA54); err != nil {
-			return t, err
+		if err == nil {
+			err = stage(k[5], 1, dpA61, dpA62, dpA63, dpA64, dpA65)
 		}
-		if err := stage(k[5], 1, dpA61, dpA62, dpA63, dpA64, dpA65); err != nil {
-			return t, err
+		if err == nil {
+			for i := 0; i < n; i++ {
+				s.yNew[i] = y[i] + h*(dpB1*k[0][i]+dpB3*k[2][i]+dpB4*k[3][i]+dpB5*k[4][i]+dpB6*k[5][i])
+			}
+			err = s.f(t+h, s.yNew, k[6])
 		}
-		for i := 0; i < n; i++ {
-			s.yNew[i] = y[i] + h*(dpB1*k[0][i]+dpB3*k[2][i]+dpB4*k[3][i]+dpB5*k[4][i]+dpB6*k[5][i])
-		}
-		if err := s.f(t+h, s.yNew, k[6]); err != nil {
-			return t, err
+		if err != nil {
+			stageErr = err
+			rejected++
+			h *= dpMinScale
+			continue
 		}
 		errNorm := 0.0
 		for i := 0; i < n; i++ {
@@ -106,6 +126,7 @@ func (s *odeStepper) run(t0, tEnd float64, y []float64, h float64, after func(t 
 		}
 		errNorm = math.Sqrt(errNorm / float64(n))
 		if math.IsNaN(errNorm) {
+			rejected++
 			h *= dpMinScale
 			continue
 		}
@@ -118,10 +139,12 @@ func (s *odeStepper) run(t0, tEnd float64, y []float64, h float64, after func(t 
 			copy(y, s.yNew)
 			k[0], k[6] = k[6], k[0] // first same as last
 			s.steps++
+			stageErr, rejected = nil, 0
 			if after != nil && after(t, y, k[0]) {
 				return t, nil
 			}
 		} else {
+			rejected++
 			scale = math.Min(scale, 1)
 		}
 		h *= scale

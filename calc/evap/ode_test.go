@@ -1,6 +1,7 @@
 package evap
 
 import (
+	"errors"
 	"math"
 	"testing"
 )
@@ -39,5 +40,39 @@ func TestDormandPrince(t *testing.T) {
 	tStop, _ := s.run(0, 10, y, 1e-3, func(_ float64, y, _ []float64) bool { return y[0] < 0.5 })
 	if !(y[0] < 0.5) || tStop >= 10 || math.Abs(y[0]-math.Exp(-2*tStop)) > 1e-7 {
 		t.Errorf("stop hook: y = %g at t = %g", y[0], tStop)
+	}
+}
+
+// A right-hand side that fails at a trial state the step overshot to
+// (here y < 0, as a drop's mass past zero) rejects the step instead of
+// ending the run; an error at every step size is still returned.
+func TestODEStageErrorShrinksTheStep(t *testing.T) {
+	errNegative := errors.New("negative state")
+	f := func(_ float64, y, dy []float64) error {
+		if y[0] < 0 {
+			return errNegative
+		}
+		dy[0] = -1
+		return nil
+	}
+	// The first step, 10, overshoots to y = −1 at its second stage.
+	s := newODEStepper(f, 1, 1e-8, []float64{1e-12})
+	y := []float64{1}
+	tStop, err := s.run(0, 10, y, 10, func(_ float64, y, _ []float64) bool { return y[0] < 1e-2 })
+	if err != nil || !(y[0] < 1e-2 && y[0] >= 0) || math.Abs(tStop-(1-y[0])) > 1e-9 {
+		t.Errorf("y = %g at t = %g, err %v", y[0], tStop, err)
+	}
+	// Every state past 1.5 fails: the steps shrink towards it until no
+	// step is left, and the stage's own error comes back.
+	grow := func(_ float64, y, dy []float64) error {
+		if y[0] > 1.5 {
+			return errNegative
+		}
+		dy[0] = 1
+		return nil
+	}
+	y = []float64{1}
+	if _, err := newODEStepper(grow, 1, 1e-8, []float64{1e-12}).run(0, 1, y, 0.1, nil); !errors.Is(err, errNegative) {
+		t.Errorf("a persistent stage error: got %v", err)
 	}
 }

@@ -36,7 +36,7 @@ func (c *Conditions) NewStateSweep(ts float64) (*StateSweep, error) {
 		}
 		return s, nil
 	}
-	tb, _, err := c.boilingTemperature()
+	tb, _, err := c.upperTemperature()
 	if err != nil {
 		return nil, err
 	}
@@ -67,8 +67,11 @@ func (s *StateSweep) State(d float64) (DropState, error) {
 		ts, err = s.c.steadyTemperature(d, s.tb, 0)
 	}
 	var warn string
-	if errors.Is(err, ErrBoiling) {
-		warn = err.Error()
+	critical := errors.Is(err, ErrTranscritical)
+	if errors.Is(err, ErrBoiling) || critical {
+		if !critical {
+			warn = err.Error()
+		}
 		ts = math.Nextafter(ts, 0)
 		s.guess = 0
 	} else if err != nil {
@@ -83,5 +86,6 @@ func (s *StateSweep) State(d float64) (DropState, error) {
 	if warn != "" {
 		st.Warnings = append(st.Warnings, warn)
 	}
+	st.Transcritical = critical
 	return st, err
 }

@@ -2,7 +2,6 @@ package evap
 
 import (
 	"errors"
-	"fmt"
 	"math"
 
 	"fogbench/calc/valid"
@@ -111,7 +110,7 @@ func (c *Conditions) SteadyTemperature(d float64) (float64, error) {
 	if err := valid.Positive("drop.diameter_m", d); err != nil {
 		return 0, err
 	}
-	tb, _, err := c.boilingTemperature()
+	tb, _, err := c.upperTemperature()
 	if err != nil {
 		return 0, err
 	}
@@ -124,8 +123,11 @@ func (c *Conditions) SteadyTemperature(d float64) (float64, error) {
 func (c *Conditions) SteadyState(d float64) (DropState, error) {
 	ts, err := c.SteadyTemperature(d)
 	var warn string
-	if errors.Is(err, ErrBoiling) {
-		warn = err.Error()
+	critical := errors.Is(err, ErrTranscritical)
+	if errors.Is(err, ErrBoiling) || critical {
+		if !critical {
+			warn = err.Error()
+		}
 		ts = math.Nextafter(ts, 0)
 	} else if err != nil {
 		return DropState{}, err
@@ -134,6 +136,7 @@ func (c *Conditions) SteadyState(d float64) (DropState, error) {
 	if warn != "" {
 		s.Warnings = append(s.Warnings, warn)
 	}
+	s.Transcritical = critical
 	return s, err
 }
 
@@ -175,7 +178,7 @@ func (c *Conditions) steadyTemperature(d, tHi, guess float64) (float64, error) {
 				break
 			}
 			if t == tHi {
-				return tHi, fmt.Errorf("evap: steady temperature of a %s m drop: %w", valid.FormatValue(d), ErrBoiling)
+				return tHi, c.limitError(d, tHi)
 			}
 			lo, flo = t, ft
 			step *= 2
@@ -207,7 +210,7 @@ func (c *Conditions) steadyTemperature(d, tHi, guess float64) (float64, error) {
 	}
 	if err == nil && tHi-t < 1e-6 {
 		// The balance closes only at the boiling point itself.
-		return tHi, fmt.Errorf("evap: steady temperature of a %s m drop: %w", valid.FormatValue(d), ErrBoiling)
+		return tHi, c.limitError(d, tHi)
 	}
 	return t, err
 }

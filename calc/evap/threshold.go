@@ -24,7 +24,7 @@ func (c *Conditions) EnhancementThreshold(level, Ts float64) (float64, error) {
 	if err := valid.Between("enhancement.level", level, 1e-9, 100, ""); err != nil {
 		return 0, err
 	}
-	tb, _, err := c.boilingTemperature()
+	tb, _, err := c.upperTemperature()
 	if err != nil {
 		return 0, err
 	}

@@ -56,7 +56,7 @@ func newWater() *Liquid {
 	}
 	l.constants = []Source{
 		{"molar mass, critical point", "IAPWS constants", "IAPWS R6-95(2018) eqs. 2-4; R7-97(2012) eq. 1"},
-		{"normal boiling point", "IF97 eq. 31 at 101325 Pa", "IAPWS R7-97(2012); REFERENCE-DATA 1.1 (computed)"},
+		{"normal boiling point", "IF97 eq. 31 at 101325 Pa", "IAPWS R7-97(2012)"},
 		{"melting point (hard lower limit)", "lower bound of IF97 region 4", "IAPWS R7-97(2012) section 8"},
 		{"acentric factor, dipole moment", "as coded in python3-iapws 1.5.2 (IAPWS95.f_acent, momentoDipolar)", "python3-iapws 1.5.2 iapws95.py"},
 		{"critical volume", "M/rho_c", "IAPWS R6-95(2018), rho_c = 322 kg/m3"},
@@ -113,7 +113,7 @@ func newHeptane() *Liquid {
 		perMass(m, idealGasCp(9.634, 0.004156, 0.00015494, -2.0066e-07, 7.77e-11))}
 	finishOrganic(l)
 	l.constants = []Source{
-		{"molar mass", "C7H16 from IUPAC atomic weights", "REFERENCE-DATA 2.2 [read]"},
+		{"molar mass", "C7H16 from IUPAC atomic weights", "IUPAC standard atomic weights"},
 		{"critical temperature, critical pressure", "evaluated data", refIUPACCrit},
 		{"normal boiling point", "handbook value", refCRCTb},
 		{"melting point (hard lower limit)", "triple point = lower bound of the vapor-pressure fit", refPerry2_8},

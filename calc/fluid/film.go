@@ -52,7 +52,7 @@ func CheckFilm(l *Liquid, g *Gas, p, Ts, Tinf, Ys, Yinf float64) ([]string, erro
 
 // FilmProperties evaluates the gas film at the reference state of the 1/3
 // rule (Hubbard, Denny & Mills, Int. J. Heat Mass Transfer 18 (1975) 1003;
-// Yuen & Chen 1976; from memory, REFERENCE-DATA 6.2):
+// Yuen & Chen 1976; from memory):
 //
 //	Tr = Ts + (Tinf - Ts)/3,  Yr = Ys + (Yinf - Ys)/3
 //

@@ -7,7 +7,8 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 )
 
-// The 1/3 rule (Hubbard, Denny & Mills 1975; REFERENCE-DATA 6.2 [computed]):
+// The 1/3 rule (Hubbard, Denny & Mills 1975, from memory; computed by
+// independent arithmetic):
 // Ts = 342 K, Tinf = 850 K gives Tr = 511.333 K; Ys = 1, Yinf = 0 gives
 // Yr = 2/3. The mixture values are re-derived here by hand from the pure
 // properties at Tr, so the test checks the mixing rules, not the pure data.
@@ -89,7 +90,7 @@ func TestFilmInvalidInputsStayFinite(t *testing.T) {
 }
 
 // Vapor content: x = pv/p; x = rh p_s/p. Water at 25 degC, 50 % RH, 1 atm:
-// 0.5*3169.747/101325 = 0.0156415 (p_s from IF97, REFERENCE-DATA 1.1).
+// 0.5*3169.747/101325 = 0.0156415 (p_s from IF97 eq. 30, computed).
 func TestVaporMoleFraction(t *testing.T) {
 	x, err := VaporMoleFractionFromPartialPressure(1000, 1e5)
 	if err != nil || x != 0.01 {
@@ -103,7 +104,12 @@ func TestVaporMoleFraction(t *testing.T) {
 	if err != nil || !scalar.EqualWithinAbsOrRel(x, 0.5*3169.747/101325, 0, 1e-6) {
 		t.Errorf("x(50 %% RH) = %g, %v", x, err)
 	}
-	for _, c := range []struct{ rh, T, p float64 }{{1.5, 298.15, 101325}, {0.5, 700, 101325}, {1, 380, 101325}, {0.5, 298.15, 0}} {
+	// Above 1 is supersaturated, accepted as documented.
+	x, err = VaporMoleFractionFromRelativeHumidity(w, 1.5, 298.15, 101325)
+	if err != nil || !scalar.EqualWithinAbsOrRel(x, 1.5*3169.747/101325, 0, 1e-6) {
+		t.Errorf("x(150 %% RH) = %g, %v", x, err)
+	}
+	for _, c := range []struct{ rh, T, p float64 }{{10.5, 298.15, 101325}, {-0.1, 298.15, 101325}, {0.5, 700, 101325}, {1, 380, 101325}, {0.5, 298.15, 0}} {
 		if _, err := VaporMoleFractionFromRelativeHumidity(w, c.rh, c.T, c.p); err == nil {
 			t.Errorf("rh=%g T=%g p=%g must be an error", c.rh, c.T, c.p)
 		}

@@ -75,7 +75,8 @@ func dippr114(tc, a, b, c, d float64) func(float64) float64 {
 }
 
 // antoine is log10(p/Pa) = A - B/(T + C), T in K (Poling, Prausnitz &
-// O'Connell, 5th ed., Appendix A, in the Pa-and-K form of REFERENCE-DATA 2.1a).
+// O'Connell, 5th ed., Appendix A, in the Pa-and-K form of the
+// CalebBell/chemicals transcription, where the coefficients were read).
 func antoine(a, b, c float64) func(float64) float64 {
 	return func(T float64) float64 { return math.Pow(10, a-b/(T+c)) }
 }

@@ -19,15 +19,22 @@ func VaporMoleFractionFromPartialPressure(pv, p float64) (float64, error) {
 	return pv / p, nil
 }
 
+// MaxSaturationRatio bounds a relative saturation: above 1 the gas is
+// supersaturated (drops larger than the Kelvin equilibrium size grow);
+// beyond 10 no gas stays supersaturated without nucleating drops of its
+// own (common practice, no source).
+const MaxSaturationRatio = 10
+
 // VaporMoleFractionFromRelativeHumidity returns x = rh p_s(T)/p for a
-// relative saturation rh in [0, 1] of the liquid's vapor at gas temperature T
+// relative saturation rh in [0, MaxSaturationRatio] (above 1:
+// supersaturated) of the liquid's vapor at gas temperature T
 // in K and pressure p in Pa (ideal gas; the enhancement factor of real moist
 // air, about 1.004 at 1 atm, is neglected). T must lie inside the liquid's
 // hard limits (the saturation pressure is undefined above Tc); p_s(T) must be
 // below p.
 func VaporMoleFractionFromRelativeHumidity(l *Liquid, rh, T, p float64) (float64, error) {
 	var es valid.Errors
-	es.Add(valid.Between("gas.relative_humidity", rh, 0, 1, ""))
+	es.Add(valid.Between("gas.relative_humidity", rh, 0, MaxSaturationRatio, "(saturation ratio; 1 = saturated, above 1 supersaturated)"))
 	es.Add(valid.Positive("gas.pressure_pa", p))
 	if T < l.tmelt || T > l.tc {
 		es.Add(valid.Errorf("gas.temperature_k", T, "relative saturation of %s is defined only between %s K and %s K",

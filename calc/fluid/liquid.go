@@ -216,6 +216,32 @@ func (l *Liquid) VaporCheck(T float64) (warnings []string, err error) {
 	return warnings, nil
 }
 
+// RangeWarnings warns once for each liquid-phase property whose published
+// range the liquid's temperatures, lo to hi in K, leave, naming the
+// temperature reached farthest beyond it and what reached it (state, e.g.
+// "the drops' steady temperature"). lo = hi is one temperature; a property
+// left on both sides names both ends.
+func (l *Liquid) RangeWarnings(lo, hi float64, state string) []string {
+	var out []string
+	for _, c := range l.liquidCorrelations() {
+		below, above := lo < c.tmin, hi > c.tmax
+		var reached string
+		switch {
+		case below && above:
+			reached = fmt.Sprintf("%.2f K and %.2f K", lo, hi)
+		case below:
+			reached = fmt.Sprintf("%.2f K", lo)
+		case above:
+			reached = fmt.Sprintf("%.2f K", hi)
+		default:
+			continue
+		}
+		out = append(out, fmt.Sprintf("%s %s: %s reached %s, outside the published range %.2f–%.2f K of %s (%s); value extrapolated",
+			l.Name, c.property, state, reached, c.tmin, c.tmax, c.method, c.reference))
+	}
+	return out
+}
+
 func rangeWarning(name string, c correlation, T float64) string {
 	return fmt.Sprintf("%s %s at %.2f K is outside the published range %.2f–%.2f K of %s (%s); value extrapolated",
 		name, c.property, T, c.tmin, c.tmax, c.method, c.reference)

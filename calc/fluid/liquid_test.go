@@ -124,9 +124,9 @@ func TestLookupUnknown(t *testing.T) {
 	}
 }
 
-// n-heptane against REFERENCE-DATA section 2 (coefficients read in
-// CalebBell/chemicals data files; [computed] values assert the formula, the
-// spread between forms is the honest accuracy).
+// n-heptane against published coefficients (read in CalebBell/chemicals
+// data files; values computed from them by independent arithmetic assert the
+// formula, the spread between forms is the honest accuracy).
 func TestHeptane(t *testing.T) {
 	h, _ := Lookup("n-heptane")
 	// 2.2: solve p_s = 101325 Pa and compare with the CRC boiling point 371.55 K;

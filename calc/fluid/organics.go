@@ -73,7 +73,7 @@ func newOrganic(d organicData) *Liquid {
 
 var (
 	srcIUPACConstants = []Source{
-		{"molar mass", "from IUPAC atomic weights", "REFERENCE-DATA 2.2 [read]"},
+		{"molar mass", "from IUPAC atomic weights", "IUPAC standard atomic weights"},
 		{"critical temperature, critical pressure", "evaluated data (Tc as used by the Perry correlations)", refIUPACCrit},
 		{"normal boiling point", "handbook value", refCRCTb},
 		{"critical volume, dipole moment", "tabulated values", refPolingA + " (from memory)"},

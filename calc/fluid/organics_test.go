@@ -8,19 +8,21 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 )
 
-// Hydrocarbons and alcohols against REFERENCE-DATA section 2. Per row:
+// Hydrocarbons and alcohols against published data (coefficients and handbook
+// values read in CalebBell/chemicals; [computed] = independent arithmetic from
+// those coefficients). Per row:
 //   - T_b: solving p_s = 101325 Pa with our form (DIPPR 101, Perry Table 2-8)
-//     against the CRC boiling point, tolerance 0.2 K (2.2 test idea; the
+//     against the CRC boiling point, tolerance 0.2 K (the
 //     published forms differ by up to 0.16 K);
-//   - p_s(298.15 K) against the [computed] DIPPR value of 2.1, rel 2e-4 or
+//   - p_s(298.15 K) against the [computed] DIPPR value, rel 2e-4 or
 //     0.05 Pa (the table is rounded to 0.1 Pa);
 //   - cross-form: the Antoine (Poling App. A) value at a temperature inside
-//     its range, [computed] in 2.1, within 2 % of DIPPR (the forms' spread);
-//   - density at 298.15 K against the [computed] Perry 105 value of 2.4,
+//     its range, [computed], within 2 % of DIPPR (the forms' spread);
+//   - density at 298.15 K against the [computed] Perry 105 value,
 //     rel 1e-4, and the handbook value (from memory) within 0.5 %;
-//   - viscosity at 298.15 K against the [computed] Perry value of 2.5, rel
+//   - viscosity at 298.15 K against the [computed] Perry value, rel
 //     3e-4, and the VDI value within 4 %;
-//   - latent heat at T_b and 298.15 K against the CRC values of 2.6 [read]
+//   - latent heat at T_b and 298.15 K against the CRC values [read]
 //     within 2.5 % (DIPPR 106 vs calorimetry);
 //   - liquid and ideal-gas cp at 298.15 K against the Poling Appendix A
 //     tabulated values [read in PolingDatabank.tsv] within 2 %.
@@ -84,7 +86,7 @@ func TestOrganicsAgainstReferenceData(t *testing.T) {
 	}
 }
 
-// Surface tension, REFERENCE-DATA 2.3 [computed]: Mulero-Cachadiña at
+// Surface tension, computed by independent arithmetic: Mulero-Cachadiña at
 // 298.15 K (rel 5e-5) and the Jasper fit within 1.5 % (ethanol's fits
 // diverge with T, so only 298.15 K is compared).
 func TestOrganicSurfaceTension(t *testing.T) {
@@ -112,8 +114,8 @@ func TestOrganicSurfaceTension(t *testing.T) {
 	}
 }
 
-// n-hexadecane and acetone are not in REFERENCE-DATA. Their coefficients were
-// read in the CalebBell/chemicals transcriptions of Perry's tables, Jasper and
+// n-hexadecane and acetone have no computed check values. Their
+// coefficients were read in the CalebBell/chemicals transcriptions of Perry's tables, Jasper and
 // Mulero; they are tested here only against independent data that can be
 // stated: the Poling Appendix A tabulated cp values at 298.15 K [read in
 // PolingDatabank.tsv: hexadecane Cpl 501.45, Cpg 368.89; acetone Cpl 126.6,

@@ -41,8 +41,8 @@ func (f fuller) at(T, p float64) float64 {
 //
 //	lambda = 2 mu / (p (8 M / (pi R T))^(1/2))
 //
-// (Seinfeld & Pandis, Atmospheric Chemistry and Physics, eq. 9.6 form, from
-// memory for the equation number; REFERENCE-DATA 6.7), viscosity in Pa s, T
+// (Seinfeld & Pandis, Atmospheric Chemistry and Physics, eq. 9.6 form, form
+// and equation number from memory), viscosity in Pa s, T
 // in K, p in Pa, molarMass in kg/mol. Non-positive inputs give 0.
 func MeanFreePath(viscosity, T, p, molarMass float64) float64 {
 	if !(viscosity > 0) || !(T > 0) || !(p > 0) || !(molarMass > 0) {

@@ -11,8 +11,9 @@ import (
 	"fogbench/calc/valid"
 )
 
-// Fuller check values of REFERENCE-DATA 2.7 [computed] from Poling et al.
-// 5th ed. eq. 11-4.4, tolerance rel 1e-4 (the table is rounded to 5 digits).
+// Fuller check values computed by independent arithmetic from Poling et al.
+// 5th ed. eq. 11-4.4 and Table 11-1, tolerance rel 1e-4 (the table is
+// rounded to 5 digits).
 // The allyl chloride-air row is Poling's worked example (298 K, 1 bar); its
 // printed Fuller estimate is about 0.096 cm2/s (from memory) against 0.0975
 // measured (Lugg 1968).
@@ -75,8 +76,8 @@ func TestFullerScaling(t *testing.T) {
 	}
 }
 
-// Mean free path of air, REFERENCE-DATA 6.7 [computed] from the Seinfeld &
-// Pandis form: mu = 1.8e-5 Pa s, 298.15 K, 101325 Pa gives 65.135 nm (the book
+// Mean free path of air, computed by independent arithmetic from the
+// Seinfeld & Pandis form: mu = 1.8e-5 Pa s, 298.15 K, 101325 Pa gives 65.135 nm (the book
 // quotes 0.0651 um, from memory); mu = 1.849e-5 gives 66.908 nm. Tolerance
 // rel 1e-5.
 func TestMeanFreePath(t *testing.T) {

@@ -13,7 +13,8 @@ const (
 )
 
 // IAPWS R7-97(2012) Table 34: coefficients n1..n10 of the saturation-pressure
-// equation (eq. 30) and its backward form (eq. 31), read in REFERENCE-DATA 1.1.
+// equation (eq. 30) and its backward form (eq. 31), read in python3-iapws
+// (iapws97.py).
 var if97n = [11]float64{0,
 	0.11670521452767e4, -0.72421316703206e6, -0.17073846940092e2,
 	0.12020824702470e5, -0.32325550322333e7, 0.14915108613530e2,

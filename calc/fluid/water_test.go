@@ -7,7 +7,7 @@ import (
 )
 
 // IAPWS R7-97(2012) Table 35 (p_s(T)) and Table 36 (T_s(p)) verification
-// values, read in python3-iapws test.py test_IAPWS97_4 (REFERENCE-DATA 1.1).
+// values, read in python3-iapws test.py test_IAPWS97_4.
 func TestWaterIF97Region4Tables35And36(t *testing.T) {
 	const tolP = 1e-8 // relative, Table 35 prints 9 significant digits
 	for _, c := range []struct{ T, pMPa float64 }{
@@ -38,7 +38,7 @@ func TestWaterIF97Region4Tables35And36(t *testing.T) {
 }
 
 // IAPWS R1-76(2014) Table 1 values (read in python3-iapws test.py
-// test_Tension, REFERENCE-DATA 1.2), printed to 0.01 mN/m.
+// test_Tension), printed to 0.01 mN/m.
 func TestWaterSurfaceTensionR176Table1(t *testing.T) {
 	const tol = 0.005e-3 // N/m, half the last printed digit
 	l, _ := Lookup("water")
@@ -84,7 +84,8 @@ func TestWaterViscosityR1208(t *testing.T) {
 	}
 }
 
-// REFERENCE-DATA 1.1 [computed] values of the same equations.
+// Values of the same equations (IF97 eqs. 30, 31) computed by independent
+// arithmetic.
 func TestWaterIF97Computed(t *testing.T) {
 	if got := waterSaturationPressure(298.15); !scalar.EqualWithinAbsOrRel(got, 3169.747, 0, 1e-6) {
 		t.Errorf("p_s(298.15 K) = %.3f Pa", got)

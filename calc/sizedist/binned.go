@@ -37,8 +37,8 @@ func (b Basis) order() (float64, bool) {
 // drops and of the liquid volume in each class; each sums to 1.
 //
 // Inside a class the number density is taken as constant in D. That single
-// rule fixes the class average of D^p (ASTM E799 class-average rule, as
-// summarised in REFERENCE-DATA 4.1; the clause itself not read), the
+// rule fixes the class average of D^p (ASTM E799-03 (2015) class-average
+// rule, from memory; the clause itself not read), the
 // conversion between number and volume fractions, and the interpolation of
 // quantiles inside a class.
 type Binned struct {
@@ -60,6 +60,17 @@ func (b *Binned) Len() int { return len(b.Number) }
 // use it; they use the class averages described on Binned.
 func (b *Binned) Diameter(i int) float64 {
 	return geoMean(b.Edges[i], b.Edges[i+1])
+}
+
+// SauterDiameter is class i's own Sauter mean diameter in m,
+// <D³>/<D²> over the class with the number density constant in D (the
+// class-average rule the means use, see Binned): the diameter whose
+// volume-to-surface ratio is the class's, so that Σv_i/Σ(v_i/D32_i) over
+// the classes is the distribution's D32.
+func (b *Binned) SauterDiameter(i int) float64 {
+	ref := b.Diameter(i)
+	lo, hi := b.Edges[i]/ref, b.Edges[i+1]/ref
+	return ref * classAveragePow(lo, hi, 3) / classAveragePow(lo, hi, 2)
 }
 
 // classAveragePow is the class average <D^p> over [lo, hi] for a number
@@ -244,7 +255,7 @@ func quantile(edges, frac []float64, F float64, k float64) float64 {
 // (1951); Dv10, Dv50, Dv90 are volume quantiles and Dn50 the number median
 // (ISO 9276-2 x_10,3, x_50,3, x_90,3, x_50,0). Span = Dv90 − Dv10 in m;
 // RelativeSpan = (Dv90 − Dv10)/Dv50, dimensionless (the "relative span
-// factor" of ASTM E799 per REFERENCE-DATA 4.1, from memory). A mean that is
+// factor" of ASTM E799, from memory). A mean that is
 // undefined for the distribution is 0 and explained in Warnings.
 type Summary struct {
 	D10          float64  `json:"d10_m"`

@@ -7,9 +7,9 @@ import (
 	"testing"
 )
 
-// Binned means and quantiles converge to the closed forms of
-// REFERENCE-DATA 4.2 as the classes are refined (the model's own closed
-// forms are the reference; the tails outside 0.01–400 µm hold < 1e-13 of the
+// Binned means and quantiles converge to the closed forms of the
+// Rosin–Rammler volume distribution (Rosin & Rammler 1933) as the classes
+// are refined (the model's own closed forms are the reference; the tails outside 0.01–400 µm hold < 1e-13 of the
 // volume). The error must shrink at each refinement, at second order in the
 // class width for the means (a fivefold refinement cuts it at least
 // 15-fold; 25 is the asymptote; quantiles at least 5-fold, as their error

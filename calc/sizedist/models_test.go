@@ -81,11 +81,12 @@ func TestScipyReference(t *testing.T) {
 	}
 }
 
-// REFERENCE-DATA 4.3. The first value is [read] there (ISO 9276-2-style
-// example as transcribed by an open library: volume basis, s = 0.5,
-// median 5 µm, D32 = 5 exp(−0.125)); the others are [computed] from the
-// Hatch–Choate relations (Hatch & Choate 1929). Tolerance: rel 1e-9 for the
-// full-precision values, rel 5e-6 for the six-figure table.
+// Log-normal means. The first value is read in CalebBell/fluids
+// (PSDLognormal, an ISO 9276-2-style example: volume basis, s = 0.5,
+// median 5 µm, D32 = 5 exp(−0.125)); the others are computed by independent
+// arithmetic from the Hatch–Choate relations (Hatch & Choate, J. Franklin
+// Inst. 207 (1929) 369; citation details from memory). Tolerance: rel 1e-9
+// for the full-precision values, rel 5e-6 for the six-figure table.
 func TestLogNormalHatchChoate(t *testing.T) {
 	iso := LogNormal{Median: 5 * um, GSD: math.Exp(0.5), Basis: BasisVolume}
 	d32, _ := iso.MeanDiameter(3, 2)
@@ -119,7 +120,7 @@ func TestLogNormalHatchChoate(t *testing.T) {
 	}
 }
 
-// REFERENCE-DATA 4.4 [computed] (Mugele & Evans 1951 form, from memory):
+// Computed by independent arithmetic (Mugele & Evans 1951 form, from memory):
 // SMD of the upper-limit distribution. Tolerance rel 1e-5 on the printed
 // six figures. The closed form is also checked against direct quadrature
 // of ∫ q3(D)/D dD over (0, D_m) (rel 1e-8).
@@ -150,8 +151,8 @@ func TestUpperLimitSMD(t *testing.T) {
 	}
 }
 
-// REFERENCE-DATA 4.5 [computed] (moment form of Nukiyama & Tanasawa 1939,
-// from memory). B is given in µm^−q there and converted to m^−q here.
+// Computed by independent arithmetic (moment form of Nukiyama & Tanasawa
+// 1939, from memory). B is given in µm^−q in the table and converted to m^−q.
 // Tolerance rel 1e-5 on the printed six figures (exact ones rel 1e-12).
 func TestNukiyamaTanasawaMeans(t *testing.T) {
 	for _, c := range []struct {

@@ -94,7 +94,7 @@ func (n NukiyamaTanasawa) NumberPDF(D float64) float64 {
 	return n.density(D, 0)
 }
 
-// MeanDiameter is D_pq in m (REFERENCE-DATA 4.5 moment form):
+// MeanDiameter is D_pq in m (from the moments above):
 //
 //	D_pq = B^(−1/Q) [Γ((p+P+1)/Q) / Γ((q+P+1)/Q)]^(1/(p−q))
 //	D_pp = B^(−1/Q) exp(ψ((p+P+1)/Q) / Q)        (geometric limit)

@@ -7,8 +7,9 @@ import (
 	"testing"
 )
 
-// Check values [computed] of REFERENCE-DATA 4.2 (closed forms of Rosin &
-// Rammler 1933 in the volume-basis spray convention), diameters in µm.
+// Check values computed by independent arithmetic from the closed forms of
+// Rosin & Rammler, J. Inst. Fuel 7 (1933) 29, in the volume-basis spray
+// convention, diameters in µm.
 // Tolerance: rel 1e-5, because the table prints six significant figures.
 const rrTableTol = 1e-5
 
@@ -44,8 +45,8 @@ func TestRosinRammlerReferenceMeans(t *testing.T) {
 	}
 }
 
-// REFERENCE-DATA 4.2 [computed]: Dv0.5/SMD = (ln 2)^(1/q) Γ(1 − 1/q), printed
-// to 7 digits. Tolerance rel 1e-6.
+// Computed by independent arithmetic from the same closed forms:
+// Dv0.5/SMD = (ln 2)^(1/q) Γ(1 − 1/q), printed to 7 digits. Tolerance rel 1e-6.
 func TestRosinRammlerDv50OverSMD(t *testing.T) {
 	for _, c := range []struct{ q, want float64 }{{2, 1.475665}, {2.5, 1.286118}, {3, 1.198390}, {3.5, 1.149132}} {
 		r := RosinRammler{X: 1e-4, Q: c.q}
@@ -57,7 +58,8 @@ func TestRosinRammlerDv50OverSMD(t *testing.T) {
 	}
 }
 
-// REFERENCE-DATA 4.2 existence caveat: D10, D20, D30 need q > 3 and D21 q > 2.
+// Existence of the number means (from the volume moments X^k Γ(1 + k/q),
+// finite for k > −q): D10, D20, D30 need q > 3 and D21 q > 2.
 func TestRosinRammlerUndefinedMeans(t *testing.T) {
 	r := RosinRammler{X: 100 * um, Q: 2.5}
 	for _, pq := range [][2]float64{{1, 0}, {2, 0}, {3, 0}, {0, 0}} {

@@ -15,7 +15,7 @@ import (
 //	y = ln[a D / (D_m − D)],   a = (D_m − Dv50)/Dv50,
 //	dQ3/dy = (δ/√π) exp(−δ² y²),  so Q3(D) = [1 + erf(δ y)]/2,
 //
-// for 0 < D < D_m (form from memory, as REFERENCE-DATA 4.4 marks it; the SMD
+// for 0 < D < D_m (form from memory, the 1951 paper not read; the SMD
 // relation is derived below and checked by quadrature in the tests). DMax is
 // the largest drop (m), Dv50 the volume median (m), Delta the spread δ
 // (dimensionless, larger is narrower).

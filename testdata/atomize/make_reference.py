@@ -1,9 +1,10 @@
 #!/usr/bin/python3
 """Write correlations.csv: atomizer correlations evaluated independently with NumPy.
 
-The forms are those of REFERENCE-DATA §5 (forms from memory, not yet checked
-against the printed source). This script re-evaluates them in NumPy from the
-case-file inputs, including the flow resolution (FN, C_D, geometry) and the
+The forms are those of Lefebvre, Atomization and Sprays (1989) and Lefebvre &
+McDonell (2017, 2nd ed.) and the original papers named per correlation (forms
+from memory, not yet checked against the printed source). This script
+re-evaluates them in NumPy from the case-file inputs, including the flow resolution (FN, C_D, geometry) and the
 unit conversions from the exact unit definitions, so the Go test checks the
 whole Evaluate path against an implementation that shares no code with it.
 It tests code against formula, not formula against nature.
@@ -74,7 +75,9 @@ def pressure_swirl(props, inputs):
     emit("pressure-swirl", "radcliffe-1955", "smd_m", 7.3 * s ** 0.6 * nu ** 0.2 * m ** 0.25 * dp ** -0.4, props, inputs)
     emit("pressure-swirl", "jasuja-1979", "smd_m", 4.4 * s ** 0.6 * nu ** 0.16 * m ** 0.22 * dp ** -0.43, props, inputs)
     emit("pressure-swirl", "lefebvre-1987", "smd_m", 2.25 * s ** 0.25 * mu ** 0.25 * m ** 0.25 * dp ** -0.5 * ra ** -0.25, props, inputs)
-    t = 3.66 * (d0 * m * mu / (rho * dp)) ** 0.25
+    # Film fed to Wang & Lefebvre: Suyari & Lefebvre (1986), constant 2.7,
+    # written with the flow number as they give it.
+    t = 2.7 * (d0 * fn * mu / np.sqrt(dp * rho)) ** 0.25
     emit("pressure-swirl", "", "film_thickness_m", t, props, inputs)
     cone = None
     if "cone_angle_deg" in inputs:
@@ -104,7 +107,9 @@ def plain_orifice(props, inputs):
     emit("plain-orifice", "merrington-richardson-1947", "smd_m", 500 * d0 ** 1.2 * nu ** 0.2 / u, props, inputs)
     emit("plain-orifice", "harmon-1955", "smd_m",
          3330 * d0 ** 0.3 * mu ** 0.07 * rho ** -0.648 * s ** -0.15 * u ** -0.55 * ma ** 0.78 * ra ** -0.052, props, inputs)
-    emit("plain-orifice", "elkotb-1982", "smd_m", 3.08 * nu ** 0.385 * (s * rho) ** 0.737 * ra ** 0.06 * dp ** -0.54, props, inputs)
+    # Elkotb in its own units: SMD in µm, ΔP in bar (6156), then to m.
+    emit("plain-orifice", "elkotb-1982", "smd_m",
+         1e-6 * 6156 * nu ** 0.385 * (s * rho) ** 0.737 * ra ** 0.06 * (dp / 1e5) ** -0.54, props, inputs)
 
 
 def nt_cgs(props, inputs):
@@ -164,7 +169,7 @@ def effervescent(props, inputs):
 
 
 def main():
-    # The REFERENCE-DATA §5 input sets.
+    # The invented check input sets (PS1 kerosene-like, PO1 water jet, PO2 diesel).
     pressure_swirl(PS1, {"delta_p_pa": 1e6, "mass_flow_kg_s": 0.01, "orifice_diameter_m": 1e-3, "cone_angle_deg": 80.0})
     pressure_swirl(PS1, {"delta_p_pa": 1e6, "mass_flow_kg_s": 0.01, "orifice_diameter_m": 1e-3,
                          "swirl_chamber_diameter_m": 4e-3, "inlet_port_area_m2": 2e-6})

@@ -113,7 +113,19 @@ func Compare(fb, py []Result) (*Agreement, error) {
 			}
 		}
 		s, r := f.Summary, p.Summary
-		for _, q := range [][2]float64{{s.D10M, r.D10M}, {s.D20M, r.D20M}, {s.D30M, r.D30M}, {s.D32M, r.D32M},
+		for _, q := range []struct {
+			name string
+			a, b *float64
+		}{{"D10", s.D10M, r.D10M}, {"D20", s.D20M, r.D20M}, {"D30", s.D30M, r.D30M}} {
+			switch {
+			case q.a == nil && q.b == nil:
+			case q.a == nil || q.b == nil:
+				a.note(1, math.Inf(1), at(q.name+" missing"))
+			default:
+				a.note(1, rel(*q.a, *q.b), at("summary"))
+			}
+		}
+		for _, q := range [][2]float64{{s.D32M, r.D32M},
 			{s.D43M, r.D43M}, {s.Dv10M, r.Dv10M}, {s.Dv50M, r.Dv50M}, {s.Dv90M, r.Dv90M}, {s.RelativeSpan, r.RelativeSpan}} {
 			a.note(1, rel(q[0], q[1]), at("summary"))
 		}
