@@ -164,6 +164,10 @@ func serve(args []string, stderr io.Writer) int {
 		}
 		logger.Info("library closed", "db", st.Path())
 	}()
+	if len(st.RemovedRestoreCopies) > 0 {
+		logger.Info("removed the temporary files an interrupted restore had left", "files", strings.Join(st.RemovedRestoreCopies, ", "))
+	}
+	logWriteCheck(ctx, st, logger)
 	if n, err := st.SeedDemo(ctx); err != nil {
 		fmt.Fprintf(stderr, "fogbench: %v\n", err)
 		return 1
@@ -623,6 +627,22 @@ func loadToken(file, env string) (string, error) {
 	return tok, nil
 }
 
+// logWriteCheck says in one line at start whether the library takes
+// writes, with the free space on its disk; a read-only library is served
+// for reading and every save is refused with a message.
+func logWriteCheck(ctx context.Context, st *store.Store, logger *slog.Logger) {
+	wc, err := st.CheckWritable(ctx)
+	if err != nil {
+		logger.Warn("the library cannot be written: cases can be read, every save will be refused with a message", "db", st.Path(), "cause", err)
+		return
+	}
+	if wc.FreeBytes < 0 {
+		logger.Info("the library is writable", "db", st.Path())
+		return
+	}
+	logger.Info("the library is writable", "db", st.Path(), "free_on_disk", fmt.Sprintf("%.1f GiB", float64(wc.FreeBytes)/(1<<30)))
+}
+
 // restoreCmd replaces a library with a backup after checking it. The file
 // may come before or after the flags.
 func restoreCmd(args []string, stdout, stderr io.Writer) int {
@@ -644,6 +664,9 @@ func restoreCmd(args []string, stdout, stderr io.Writer) int {
 			return 1
 		}
 		return 2
+	}
+	if len(rep.RemovedCopies) > 0 {
+		fmt.Fprintf(stdout, "removed %d temporary files an earlier, interrupted restore had left: %s\n", len(rep.RemovedCopies), strings.Join(rep.RemovedCopies, ", "))
 	}
 	fmt.Fprintf(stdout, "restored %s from %s: %d cases, schema %d; integrity check ok\n", *dbPath, pos[0], rep.Cases, rep.SchemaVersion)
 	if rep.KeptAside != "" {

@@ -20,6 +20,10 @@ const (
 	// Canceled: the caller stopped the work (a deadline passed or the
 	// client left) before it finished; the message says which.
 	Canceled Code = "canceled"
+	// Unavailable: the case library cannot store anything now (its disk
+	// is full, or it is read-only); nothing of the request was saved and
+	// the message says why.
+	Unavailable Code = "unavailable"
 )
 
 // Error is an application error with a code and a message fit for the user.

@@ -1,12 +1,14 @@
 package server
 
 import (
-	"bytes"
+	"context"
+	"encoding/json"
 	"fmt"
 	"io"
 	"net/http"
 	"strconv"
 	"strings"
+	"time"
 
 	"fogbench/calc"
 	"fogbench/store"
@@ -80,6 +82,8 @@ func importItemsJSON(items []store.ImportItem) []importItemJSON {
 // keep-both (default) or replace; ?dry_run=1 answers the plan and writes
 // nothing. A malformed or truncated bundle answers 400 and changes nothing.
 func (s *Server) handleAPIImport(w http.ResponseWriter, r *http.Request) {
+	ctx, cancel := bundleContext(w, r)
+	defer cancel()
 	b, err := store.DecodeBundle(r.Body)
 	if err != nil {
 		s.apiError(w, r, err)
@@ -91,7 +95,7 @@ func (s *Server) handleAPIImport(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	if r.URL.Query().Get("dry_run") == "1" {
-		plan, err := s.Store.PlanImport(r.Context(), b)
+		plan, err := s.Store.PlanImport(ctx, b)
 		if err != nil {
 			s.apiError(w, r, err)
 			return
@@ -103,7 +107,7 @@ func (s *Server) handleAPIImport(w http.ResponseWriter, r *http.Request) {
 		writeJSON(w, http.StatusOK, map[string]any{"plan": out})
 		return
 	}
-	res, err := s.Store.Import(r.Context(), b, nil, def, s.author(r))
+	res, err := s.Store.Import(ctx, b, nil, def, s.author(r))
 	if err != nil {
 		s.apiError(w, r, err)
 		return
@@ -143,7 +147,7 @@ func importChrome(r *http.Request) views.Chrome {
 
 // handleImportPage serves GET /bundle/import.
 func (s *Server) handleImportPage(w http.ResponseWriter, r *http.Request) {
-	v := views.BundleImportView{Chrome: importChrome(r)}
+	v := views.BundleImportView{Chrome: importChrome(r), MaxBytes: store.MaxBundleBytes}
 	s.render(w, r, http.StatusOK, v.Chrome, views.BundleImportPage(v))
 }
 
@@ -156,34 +160,48 @@ func itemView(it store.ImportItem) views.BundleItem {
 // checked and the page lists what importing it would add, replace or keep.
 // Nothing is written.
 func (s *Server) handleImportPreview(w http.ResponseWriter, r *http.Request) {
-	v := views.BundleImportView{Chrome: importChrome(r)}
-	f, hdr, err := r.FormFile("file")
-	if err != nil {
-		if isTooLarge(err) {
-			s.error(w, r, err)
-			return
+	ctx, cancel := bundleContext(w, r)
+	defer cancel()
+	v := views.BundleImportView{Chrome: importChrome(r), MaxBytes: store.MaxBundleBytes}
+	// The file is decoded as it arrives (store.DecodeBundle reads a
+	// stream), never buffered whole or spilled to a temporary file.
+	var (
+		b        store.Bundle
+		filename string
+		found    bool
+		err      error
+	)
+	mr, merr := r.MultipartReader()
+	for merr == nil {
+		part, perr := mr.NextPart()
+		if perr != nil {
+			if perr != io.EOF {
+				err = perr
+			}
+			break
 		}
+		if part.FormName() == "file" && part.FileName() != "" {
+			found, filename = true, part.FileName()
+			b, err = store.DecodeBundle(part)
+			break
+		}
+	}
+	if isTooLarge(err) || (err != nil && calc.ErrorCode(err) != calc.Invalid) {
+		s.error(w, r, err)
+		return
+	}
+	if !found && err == nil {
 		v.Error = "Choose a bundle file to upload."
 		s.render(w, r, http.StatusBadRequest, v.Chrome, views.BundleImportPage(v))
 		return
 	}
-	defer f.Close()
-	data, err := io.ReadAll(f)
 	if err != nil {
-		s.error(w, r, err)
-		return
-	}
-	b, err := store.DecodeBundle(bytes.NewReader(data))
-	if err != nil {
-		if calc.ErrorCode(err) != calc.Invalid {
-			s.error(w, r, err)
-			return
-		}
-		v.Error = hdr.Filename + " cannot be imported: " + err.Error()
+		v.Error = filename + " cannot be imported: " + err.Error()
 		s.render(w, r, http.StatusBadRequest, v.Chrome, views.BundleImportPage(v))
 		return
 	}
-	plan, err := s.Store.PlanImport(r.Context(), b)
+	hdr := struct{ Filename string }{filename}
+	plan, err := s.Store.PlanImport(ctx, b)
 	if err != nil {
 		s.error(w, r, err)
 		return
@@ -193,7 +211,12 @@ func (s *Server) handleImportPreview(w http.ResponseWriter, r *http.Request) {
 		v.Items = append(v.Items, itemView(it))
 	}
 	v.FileName = hdr.Filename
-	v.BundleJSON = compactJSON(data)
+	data, err := json.Marshal(b) // carried to the apply step in the form
+	if err != nil {
+		s.error(w, r, err)
+		return
+	}
+	v.BundleJSON = string(data)
 	if len(v.Items) == 0 {
 		v.Error = hdr.Filename + " holds no cases."
 		s.render(w, r, http.StatusOK, v.Chrome, views.BundleImportPage(v))
@@ -205,14 +228,12 @@ func (s *Server) handleImportPreview(w http.ResponseWriter, r *http.Request) {
 // handleImportApply serves POST /bundle/import/apply: the previewed bundle
 // with the user's choices, applied in one transaction.
 func (s *Server) handleImportApply(w http.ResponseWriter, r *http.Request) {
-	if err := r.ParseMultipartForm(MaxBodyBytes); err != nil && err != http.ErrNotMultipart {
-		s.error(w, r, err)
-		return
-	}
-	v := views.BundleImportView{Chrome: importChrome(r)}
-	b, err := store.DecodeBundle(strings.NewReader(r.PostFormValue("bundle")))
+	ctx, cancel := bundleContext(w, r)
+	defer cancel()
+	v := views.BundleImportView{Chrome: importChrome(r), MaxBytes: store.MaxBundleBytes}
+	b, choices, err := readApplyForm(r)
 	if err != nil {
-		if calc.ErrorCode(err) != calc.Invalid {
+		if calc.ErrorCode(err) != calc.Invalid || isTooLarge(err) {
 			s.error(w, r, err)
 			return
 		}
@@ -220,13 +241,7 @@ func (s *Server) handleImportApply(w http.ResponseWriter, r *http.Request) {
 		s.render(w, r, http.StatusBadRequest, v.Chrome, views.BundleImportPage(v))
 		return
 	}
-	choices := map[string]store.ImportChoice{}
-	for k, vals := range r.PostForm {
-		if uid, ok := strings.CutPrefix(k, "choice."); ok && len(vals) > 0 {
-			choices[uid] = store.ImportChoice(vals[0])
-		}
-	}
-	res, err := s.Store.Import(r.Context(), b, choices, store.ImportKeepBoth, s.author(r))
+	res, err := s.Store.Import(ctx, b, choices, store.ImportKeepBoth, s.author(r))
 	if err != nil {
 		s.error(w, r, err)
 		return
@@ -242,4 +257,72 @@ func (s *Server) handleImportApply(w http.ResponseWriter, r *http.Request) {
 		v.Kept = append(v.Kept, itemView(it))
 	}
 	s.render(w, r, http.StatusOK, v.Chrome, views.BundleImportPage(v))
+}
+
+// readApplyForm reads the apply step's form: the bundle (decoded as it
+// arrives when the form is multipart, as the page sends it) and the
+// choice.UID conflict choices.
+func readApplyForm(r *http.Request) (store.Bundle, map[string]store.ImportChoice, error) {
+	choices := map[string]store.ImportChoice{}
+	mr, err := r.MultipartReader()
+	if err != nil { // a plain form: parsed whole, within the body limit
+		b, err := store.DecodeBundle(strings.NewReader(r.PostFormValue("bundle")))
+		for k, vals := range r.PostForm {
+			if uid, ok := strings.CutPrefix(k, "choice."); ok && len(vals) > 0 {
+				choices[uid] = store.ImportChoice(vals[0])
+			}
+		}
+		return b, choices, err
+	}
+	var (
+		b    store.Bundle
+		seen bool
+	)
+	for {
+		part, err := mr.NextPart()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			return b, nil, err
+		}
+		name := part.FormName()
+		uid, isChoice := strings.CutPrefix(name, "choice.")
+		switch {
+		case name == "bundle" && !seen:
+			seen = true
+			if b, err = store.DecodeBundle(part); err != nil {
+				return b, nil, err
+			}
+		case isChoice:
+			val, err := io.ReadAll(io.LimitReader(part, 64))
+			if err != nil {
+				return b, nil, err
+			}
+			choices[uid] = store.ImportChoice(val)
+		}
+	}
+	if !seen {
+		b, err := store.DecodeBundle(strings.NewReader(""))
+		return b, nil, err
+	}
+	return b, choices, nil
+}
+
+// BundleDeadline bounds a bundle import. Reading, checking and writing a
+// bundle near its limit takes minutes (a 29 MB bundle of 10,000 cases took
+// 22 s on a loaded machine), past the 30 s handler deadline and the
+// server's 60 s read and write timeouts that every other request keeps.
+const BundleDeadline = 10 * time.Minute
+
+// bundleContext extends the connection's read and write deadlines of a
+// bundle import to BundleDeadline and returns the context the import runs
+// under: BundleDeadline from now, no longer ended by the handler deadline
+// (nor by the client leaving: the import is all or nothing either way).
+func bundleContext(w http.ResponseWriter, r *http.Request) (context.Context, context.CancelFunc) {
+	until := time.Now().Add(BundleDeadline)
+	rc := http.NewResponseController(w)
+	rc.SetReadDeadline(until) // not every writer supports deadlines (tests' recorders)
+	rc.SetWriteDeadline(until)
+	return context.WithDeadline(context.WithoutCancel(r.Context()), until)
 }

@@ -430,7 +430,7 @@ func (s *Server) handleCaseCreate(w http.ResponseWriter, r *http.Request) {
 	}
 	rec, err := s.Store.CreateCase(r.Context(), c, s.author(r))
 	if err != nil {
-		s.error(w, r, err)
+		s.caseSaveFailed(w, r, err, s.formView(r, "New case", "/cases", 0, 0, cf.Values, cf.Units, nil, c.Distribution.Model))
 		return
 	}
 	s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), "Saved")
@@ -472,7 +472,7 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 	if r.PostForm.Get("as_copy") == "1" {
 		rec, err := s.Store.CreateCase(r.Context(), c, s.author(r))
 		if err != nil {
-			s.error(w, r, err)
+			s.caseSaveFailed(w, r, err, s.formView(r, "Edit "+c.Name, action, id, base, cf.Values, cf.Units, nil, c.Distribution.Model))
 			return
 		}
 		s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), "Saved as a new case")
@@ -485,7 +485,7 @@ func (s *Server) handleCaseUpdate(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	if err != nil {
-		s.error(w, r, err)
+		s.caseSaveFailed(w, r, err, s.formView(r, "Edit "+c.Name, action, id, base, cf.Values, cf.Units, nil, c.Distribution.Model))
 		return
 	}
 	s.redirectWithFlash(w, r, fmt.Sprintf("/cases/%d", rec.ID), fmt.Sprintf("Saved revision %d", rec.Revision))

@@ -419,8 +419,13 @@ func (s *Server) handleLiquidCreate(w http.ResponseWriter, r *http.Request) {
 		if err != nil {
 			marks, general = liquidFormErrors(err, marks)
 		}
+		status := http.StatusUnprocessableEntity
+		if st, ok := storageStatus(err); ok { // disk full or read-only: the form stays
+			status, general = st, general+keptFormNote
+			s.logStorage(r, err)
+		}
 		f := s.liquidForm(r, "New user liquid", "/fluids/custom", false, 0, vals, marks, general)
-		s.render(w, r, http.StatusUnprocessableEntity, f.Chrome, views.CustomLiquidFormPage(f))
+		s.render(w, r, status, f.Chrome, views.CustomLiquidFormPage(f))
 		return
 	}
 	s.redirectWithFlash(w, r, "/fluids/"+url.PathEscape(spec.ID), "Saved")
@@ -463,6 +468,10 @@ func (s *Server) handleLiquidUpdate(w http.ResponseWriter, r *http.Request) {
 		status := http.StatusUnprocessableEntity
 		if calc.ErrorCode(err) == calc.Conflict {
 			status = http.StatusConflict
+		}
+		if st, ok := storageStatus(err); ok { // disk full or read-only: the form stays
+			status, general = st, general+keptFormNote
+			s.logStorage(r, err)
 		}
 		f := s.liquidForm(r, "Edit "+spec.Name, "/fluids/custom/"+url.PathEscape(id), true, base, vals, marks, general)
 		s.render(w, r, status, f.Chrome, views.CustomLiquidFormPage(f))

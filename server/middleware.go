@@ -12,6 +12,7 @@ import (
 	"github.com/go-chi/chi/v5/middleware"
 
 	"fogbench/calc"
+	"fogbench/store"
 )
 
 // requestLogger logs one line per request with slog.
@@ -64,9 +65,10 @@ func securityHeaders(next http.Handler) http.Handler {
 // upload (whose handler reads it part by part to keep the fields typed
 // before an oversized file), is cut at n and the handler sees
 // *http.MaxBytesError.
-func (s *Server) limitBody(n int64) func(http.Handler) http.Handler {
+func (s *Server) limitBody(limit func(*http.Request) int64) func(http.Handler) http.Handler {
 	return func(next http.Handler) http.Handler {
 		return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+			n := limit(r)
 			multipart := strings.HasPrefix(r.Header.Get("Content-Type"), "multipart/form-data")
 			if r.ContentLength > n && !multipart {
 				err := &http.MaxBytesError{Limit: n}
@@ -88,6 +90,33 @@ func (s *Server) limitBody(n int64) func(http.Handler) http.Handler {
 func isTooLarge(err error) bool {
 	var mbe *http.MaxBytesError
 	return errors.As(err, &mbe)
+}
+
+// bundleRoutes take a library bundle, which may be far larger than any
+// other request: a whole library exported by /api/export.
+var bundleRoutes = map[string]bool{"/api/import": true, "/bundle/import": true, "/bundle/import/apply": true}
+
+// BundleBodyBytes bounds the body of a bundle import: the bundle's own
+// limit (the form around it, a file name or the conflict choices, is small
+// beside it).
+const BundleBodyBytes = store.MaxBundleBytes
+
+// bodyLimit is the largest body a request may send: BundleBodyBytes to the
+// bundle import routes, MaxBodyBytes to every other.
+func bodyLimit(r *http.Request) int64 {
+	if r.Method == http.MethodPost && bundleRoutes[r.URL.Path] {
+		return BundleBodyBytes
+	}
+	return MaxBodyBytes
+}
+
+// limitText is the limit a too-large error was cut at, for its message.
+func limitText(err error) string {
+	n := int64(MaxBodyBytes)
+	if mbe := (*http.MaxBytesError)(nil); errors.As(err, &mbe) && mbe.Limit > 0 {
+		n = mbe.Limit
+	}
+	return fmt.Sprintf("%d MiB", n>>20)
 }
 
 // cacheStatic lets browsers keep the embedded assets for a day; embed.FS has

@@ -6,6 +6,7 @@ import (
 	"image/color"
 	"math"
 	"regexp"
+	"strconv"
 	"strings"
 
 	"gonum.org/v1/plot"
@@ -50,8 +51,24 @@ type chart struct {
 	MarkNames             []string
 }
 
-// newPlot builds the gonum plot. Points that a log axis cannot show (≤ 0,
-// NaN, Inf) are dropped, since gonum panics on them.
+// maxPlotMagnitude bounds the values a chart draws: beyond it (and, on a
+// log axis, below its inverse) a point is left out, so that every axis
+// range, its headroom and its ticks stay finite. No quantity fogbench plots
+// comes near it in any display unit.
+const maxPlotMagnitude = 1e300
+
+// drawable reports whether v can be drawn on an axis of that kind.
+func drawable(v float64, log bool) bool {
+	if math.IsNaN(v) || math.Abs(v) > maxPlotMagnitude {
+		return false
+	}
+	return !log || v >= 1/maxPlotMagnitude
+}
+
+// newPlot builds the gonum plot. Points that an axis cannot show (NaN, Inf,
+// ≤ 0 on a log axis) are dropped, since gonum panics on them, and the axis
+// ranges are settled so that no series (flat, a single value, extreme) can
+// make gonum panic or loop while it draws.
 func (c chart) newPlot() (*plot.Plot, error) {
 	p := plot.New()
 	p.Title.Text = c.Title
@@ -67,40 +84,53 @@ func (c chart) newPlot() (*plot.Plot, error) {
 	p.Add(plotter.NewGrid())
 	if c.LogX {
 		p.X.Scale = plot.LogScale{}
-		p.X.Tick.Marker = plot.LogTicks{Prec: -1}
+		p.X.Tick.Marker = sparseLogTicks{}
 	}
 	if c.LogY {
 		p.Y.Scale = plot.LogScale{}
-		p.Y.Tick.Marker = plot.LogTicks{Prec: -1}
+		p.Y.Tick.Marker = sparseLogTicks{}
 	}
 	xmin, xmax := math.Inf(1), math.Inf(-1)
 	ymin, ymax := math.Inf(1), math.Inf(-1)
 	drawn, legendLines := 0, 0
 	for i, s := range c.Series {
 		var pts plotter.XYs
-		for j := range s.X {
+		for j := range min(len(s.X), len(s.Y)) {
 			x, y := s.X[j], s.Y[j]
-			if math.IsNaN(x) || math.IsInf(x, 0) || math.IsNaN(y) || math.IsInf(y, 0) {
-				continue
-			}
-			if (c.LogX && x <= 0) || (c.LogY && y <= 0) {
+			if !drawable(x, c.LogX) || !drawable(y, c.LogY) {
 				continue
 			}
 			pts = append(pts, plotter.XY{X: x, Y: y})
 			xmin, xmax = math.Min(xmin, x), math.Max(xmax, x)
 			ymin, ymax = math.Min(ymin, y), math.Max(ymax, y)
 		}
-		if len(pts) < 2 {
+		col := palette[i%len(palette)]
+		if s.Color > 0 {
+			col = palette[(s.Color-1)%len(palette)]
+		}
+		if len(pts) == 0 {
+			continue
+		}
+		if len(pts) == 1 { // one value: a dot, since a line needs two
+			sc, err := plotter.NewScatter(pts)
+			if err != nil {
+				return nil, err
+			}
+			sc.GlyphStyle.Color = col
+			sc.GlyphStyle.Radius = vg.Points(3)
+			p.Add(sc)
+			if s.Name != "" {
+				p.Legend.Add(s.Name, sc)
+				legendLines++
+			}
+			drawn++
 			continue
 		}
 		l, err := plotter.NewLine(pts)
 		if err != nil {
 			return nil, err
 		}
-		l.Color = palette[i%len(palette)]
-		if s.Color > 0 {
-			l.Color = palette[(s.Color-1)%len(palette)]
-		}
+		l.Color = col
 		l.Width = vg.Points(1.6)
 		if s.Step {
 			l.StepStyle = plotter.PostStep
@@ -118,24 +148,103 @@ func (c chart) newPlot() (*plot.Plot, error) {
 	if drawn == 0 {
 		return nil, fmt.Errorf("plot %q: no drawable points", c.Title)
 	}
+	type markLine struct {
+		x    float64
+		name string
+	}
+	var marks []markLine
 	for i, m := range c.Marks {
-		if m < xmin || m > xmax || (c.LogX && m <= 0) {
+		if !(m >= xmin && m <= xmax) || !drawable(m, c.LogX) {
 			continue
 		}
-		l, err := plotter.NewLine(plotter.XYs{{X: m, Y: ymin}, {X: m, Y: ymax}})
+		ml := markLine{x: m}
+		if i < len(c.MarkNames) {
+			ml.name = c.MarkNames[i]
+			legendLines++
+		}
+		marks = append(marks, ml)
+	}
+	headroom(p, c.LogY, ymin, ymax, legendLines)
+	settle(&p.X, c.LogX, xmin, xmax)
+	settle(&p.Y, c.LogY, ymin, ymax)
+	// Marks span the data; over flat data, the axis.
+	y0, y1 := ymin, ymax
+	if !(y1 > y0) {
+		y0, y1 = p.Y.Min, p.Y.Max
+	}
+	for _, m := range marks {
+		l, err := plotter.NewLine(plotter.XYs{{X: m.x, Y: y0}, {X: m.x, Y: y1}})
 		if err != nil {
 			return nil, err
 		}
 		l.Color = color.Gray{Y: 0x80}
 		l.Dashes = []vg.Length{vg.Points(2), vg.Points(2)}
 		p.Add(l)
-		if i < len(c.MarkNames) {
-			p.Legend.Add(c.MarkNames[i], l)
-			legendLines++
+		if m.name != "" {
+			p.Legend.Add(m.name, l)
 		}
 	}
-	headroom(p, c.LogY, ymin, ymax, legendLines)
 	return p, nil
+}
+
+// sparseLogTicks are gonum's log ticks (a label per decade, minor ticks
+// between) for axes of up to two dozen decades, which every real plot here
+// stays within. A wider axis, which only absurd data make, gets about a
+// dozen labelled ticks and no minor ones, so that drawing it stays as cheap
+// as a normal plot (hundreds of decades took a second to draw).
+type sparseLogTicks struct{}
+
+func (sparseLogTicks) Ticks(min, max float64) []plot.Tick {
+	lo, hi := math.Floor(math.Log10(min)), math.Ceil(math.Log10(max))
+	if hi-lo <= 24 {
+		return plot.LogTicks{Prec: -1}.Ticks(min, max)
+	}
+	step := math.Ceil((hi - lo) / 12)
+	var ticks []plot.Tick
+	for e := lo; e <= hi; e += step {
+		v := math.Pow(10, e)
+		ticks = append(ticks, plot.Tick{Value: v, Label: strconv.FormatFloat(v, 'g', -1, 64)})
+	}
+	return ticks
+}
+
+// settle gives the axis a range gonum can draw: finite, positive on a log
+// axis, and wide enough for the tick code to step through. Without it a
+// flat series (a constant property) gets gonum's default of value ± 1,
+// which puts a log axis below zero (a panic), and a range narrower than
+// the floating-point spacing of its values can keep the tick code looping.
+// A flat series is shown in a range around its value: a decade either side
+// on a log axis; on a linear one from zero (when positive, as most
+// quantities are) or ±10 %, or −1…1 at zero.
+func settle(a *plot.Axis, log bool, dmin, dmax float64) {
+	usable := func(lo, hi float64) bool {
+		if math.IsNaN(lo) || math.IsNaN(hi) || math.IsInf(lo, 0) || math.IsInf(hi, 0) || !(hi > lo) {
+			return false
+		}
+		if log {
+			r := hi / lo
+			return lo > 0 && r >= 1+1e-6 && !math.IsInf(r, 0)
+		}
+		return hi-lo >= 1e-9*math.Max(math.Abs(lo), math.Abs(hi)) && !math.IsInf(hi-lo, 0)
+	}
+	if usable(a.Min, a.Max) {
+		return
+	}
+	if usable(dmin, dmax) {
+		a.Min, a.Max = dmin, dmax
+		return
+	}
+	v := dmax // the data are flat (or nearly): one value
+	switch {
+	case log:
+		a.Min, a.Max = v/10, v*10
+	case v > 0:
+		a.Min, a.Max = 0, 1.5*v
+	case v < 0:
+		a.Min, a.Max = 1.1*v, 0.9*v
+	default:
+		a.Min, a.Max = -1, 1
+	}
 }
 
 // headroom raises the top of the y axis so the legend, drawn in the top

@@ -81,7 +81,7 @@ func (s *Server) Handler() http.Handler {
 	r.Use(middleware.Timeout(30 * time.Second))
 	r.Use(securityHeaders)
 	r.Use(s.crossOrigin) // CSRF: cross-site POSTs get 403 (csrf.go)
-	r.Use(s.limitBody(MaxBodyBytes))
+	r.Use(s.limitBody(bodyLimit))
 
 	// What is public is decided by the route the router chose, never by
 	// the raw path: the static files and the sign-in page sit outside the
@@ -246,6 +246,9 @@ func statusOf(err error) int {
 		return http.StatusNotFound
 	case calc.Conflict:
 		return http.StatusConflict
+	case calc.Unavailable:
+		status, _ := storageStatus(err) // 507 disk full, 503 read-only
+		return status
 	case calc.Canceled:
 		// The request's time limit passed (chi's Timeout also answers
 		// 504) or the client left, when no one reads the answer.
@@ -263,10 +266,13 @@ func (s *Server) error(w http.ResponseWriter, r *http.Request, err error) {
 	status := statusOf(err)
 	msg := calc.ErrorMessage(err)
 	if status == http.StatusRequestEntityTooLarge {
-		msg = "The upload is larger than the limit of 8 MiB."
+		msg = "The upload is larger than the limit of " + limitText(err) + "."
 	}
 	if status == http.StatusInternalServerError {
 		s.Logger.Error("request failed", "path", r.URL.Path, "request_id", middleware.GetReqID(r.Context()), "err", err)
+	}
+	if _, ok := storageStatus(err); ok {
+		s.logStorage(r, err)
 	}
 	chrome := views.Chrome{Title: "Error", Display: display(r)}
 	s.render(w, r, status, chrome, views.ErrorPage(status, msg))
@@ -279,8 +285,12 @@ func (s *Server) apiError(w http.ResponseWriter, r *http.Request, err error) {
 		s.Logger.Error("api request failed", "path", r.URL.Path, "request_id", middleware.GetReqID(r.Context()), "err", err)
 	}
 	body := map[string]any{"error": calc.ErrorMessage(err)}
+	if _, ok := storageStatus(err); ok {
+		s.logStorage(r, err)
+		body["code"] = storageCode(err)
+	}
 	if status == http.StatusRequestEntityTooLarge {
-		body["error"] = "request body is larger than 8 MiB"
+		body["error"] = "request body is larger than " + limitText(err)
 	}
 	if fes := calc.FieldErrors(err); len(fes) > 0 {
 		fields := make([]map[string]string, len(fes))

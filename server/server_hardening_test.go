@@ -292,6 +292,12 @@ func rawRequest(t *testing.T, ts *httptest.Server, method, path, ctype string, d
 // the limit for the API, an error page with it for pages.
 func checkTooLarge(t *testing.T, what string, resp *http.Response) {
 	t.Helper()
+	checkTooLargeLimit(t, what, resp, "8 MiB")
+}
+
+// checkTooLargeLimit is checkTooLarge for a route with its own limit.
+func checkTooLargeLimit(t *testing.T, what string, resp *http.Response, limit string) {
+	t.Helper()
 	body, _ := io.ReadAll(resp.Body)
 	if resp.StatusCode != http.StatusRequestEntityTooLarge {
 		t.Errorf("%s: status %d, want 413: %.200s", what, resp.StatusCode, body)
@@ -299,7 +305,7 @@ func checkTooLarge(t *testing.T, what string, resp *http.Response) {
 	}
 	if strings.HasPrefix(resp.Header.Get("Content-Type"), "application/json") {
 		var e struct{ Error string }
-		if err := json.Unmarshal(body, &e); err != nil || !strings.Contains(e.Error, "8 MiB") {
+		if err := json.Unmarshal(body, &e); err != nil || !strings.Contains(e.Error, limit) {
 			t.Errorf("%s: JSON %q does not give the limit", what, body)
 		}
 		return
@@ -308,7 +314,7 @@ func checkTooLarge(t *testing.T, what string, resp *http.Response) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if msg := doc.Find(`[data-testid=error]`).Text(); !strings.Contains(msg, "larger than the limit of 8 MiB") {
+	if msg := doc.Find(`[data-testid=error]`).Text(); !strings.Contains(msg, "larger than the limit of "+limit) {
 		t.Errorf("%s: error page says %q", what, msg)
 	}
 }
@@ -326,8 +332,10 @@ func TestOversizedBodiesGetAClearMessage(t *testing.T) {
 		if strings.HasPrefix(rt[1], "/api/") {
 			ctype = "application/json"
 		}
-		resp := rawRequest(t, ts, rt[0], rt[1], ctype, MaxBodyBytes+1)
-		checkTooLarge(t, "declared "+rt[0]+" "+rt[1], resp)
+		// Bundle imports have their own, larger limit (BundleBodyBytes).
+		limit := bodyLimit(httptest.NewRequest(rt[0], rt[1], nil))
+		resp := rawRequest(t, ts, rt[0], rt[1], ctype, int(limit)+1)
+		checkTooLargeLimit(t, "declared "+rt[0]+" "+rt[1], resp, fmt.Sprintf("%d MiB", limit>>20))
 		if strings.HasPrefix(rt[1], "/api/") && !strings.HasPrefix(resp.Header.Get("Content-Type"), "application/json") {
 			t.Errorf("%s %s: API refusal is %s, not JSON", rt[0], rt[1], resp.Header.Get("Content-Type"))
 		}

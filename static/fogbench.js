@@ -129,6 +129,58 @@
     var status = document.getElementById("import-status");
     if (status) { status.textContent = "Sending the file…"; }
   });
+  // Bundle uploads (the import page, forms marked data-upload): refuse a
+  // file over the limit before sending it, show how much of the upload has
+  // gone, then that the server is checking it, and put the answer page in
+  // place. Without this script the forms post as usual.
+  function mib(n) { return (n / 1048576).toFixed(1) + " MiB"; }
+  document.addEventListener("submit", function (e) {
+    var form = e.target;
+    if (e.defaultPrevented || !form.hasAttribute || !form.hasAttribute("data-upload") || !window.FormData || !window.DOMParser) { return; }
+    var box = form.querySelector(".upload-progress");
+    if (!box) { return; }
+    var bar = box.querySelector("progress");
+    var text = box.querySelector(".busy-text");
+    var file = form.querySelector("input[type=file]");
+    var limit = file ? parseInt(file.getAttribute("data-max-bytes"), 10) : 0;
+    e.preventDefault();
+    box.hidden = false;
+    if (file && file.files && file.files.length > 0 && limit > 0 && file.files[0].size > limit) {
+      bar.hidden = true;
+      text.textContent = "The file is " + mib(file.files[0].size) + ", larger than the limit of " + file.getAttribute("data-max-text") + ". Nothing was imported.";
+      return;
+    }
+    bar.hidden = false;
+    bar.value = 0;
+    text.textContent = "Sending…";
+    var buttons = form.querySelectorAll("button[type=submit]");
+    for (var i = 0; i < buttons.length; i++) { buttons[i].disabled = true; }
+    var xhr = new XMLHttpRequest();
+    xhr.open("POST", form.getAttribute("action"));
+    xhr.upload.addEventListener("progress", function (ev) {
+      if (!ev.lengthComputable || ev.total === 0) { return; }
+      var pct = Math.floor(100 * ev.loaded / ev.total);
+      bar.value = pct;
+      text.textContent = "Sending… " + pct + " % of " + mib(ev.total);
+    });
+    xhr.upload.addEventListener("load", function () {
+      bar.removeAttribute("value"); // indeterminate while the server works
+      text.textContent = "Sent; checking every case…";
+    });
+    xhr.addEventListener("load", function () {
+      var doc = new DOMParser().parseFromString(xhr.responseText, "text/html");
+      document.title = doc.title;
+      document.body.replaceWith(document.adoptNode(doc.body));
+      window.scrollTo(0, 0);
+      if (window.htmx) { window.htmx.process(document.body); }
+    });
+    xhr.addEventListener("error", function () {
+      bar.hidden = true;
+      text.textContent = "The upload failed: the connection to fogbench was lost. Nothing was imported.";
+      for (var i = 0; i < buttons.length; i++) { buttons[i].disabled = false; }
+    });
+    xhr.send(new FormData(form));
+  });
   document.addEventListener("htmx:xhr:progress", function (e) {
     if (e.detail.elt !== importButton || !e.detail.lengthComputable) { return; }
     var bar = document.getElementById("import-progress");

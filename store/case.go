@@ -523,5 +523,5 @@ func wrapTx(what string, err error) error {
 	if isBusy(err) {
 		return &calc.Error{Code: calc.Conflict, Message: "the case library is busy; try again in a moment", Err: err}
 	}
-	return fmt.Errorf("store: %s: %w", what, err)
+	return fmt.Errorf("store: %s: %w", what, classify(err))
 }

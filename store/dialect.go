@@ -54,8 +54,11 @@ type conn struct {
 	d  dialect
 }
 
+// Writes go through ExecContext, begin and Commit, which turn a storage
+// refusal (disk full, read-only) into a *StorageError (fault.go).
 func (c conn) ExecContext(ctx context.Context, q string, args ...any) (sql.Result, error) {
-	return c.db.ExecContext(ctx, c.d.rebind(q), args...)
+	res, err := c.db.ExecContext(ctx, c.d.rebind(q), args...)
+	return res, classify(err)
 }
 
 func (c conn) QueryContext(ctx context.Context, q string, args ...any) (*sql.Rows, error) {
@@ -69,7 +72,7 @@ func (c conn) QueryRowContext(ctx context.Context, q string, args ...any) *sql.R
 func (c conn) begin(ctx context.Context) (*txn, error) {
 	tx, err := c.db.BeginTx(ctx, nil)
 	if err != nil {
-		return nil, err
+		return nil, classify(err)
 	}
 	return &txn{tx: tx, d: c.d}, nil
 }
@@ -82,7 +85,8 @@ type txn struct {
 }
 
 func (t *txn) ExecContext(ctx context.Context, q string, args ...any) (sql.Result, error) {
-	return t.tx.ExecContext(ctx, t.d.rebind(q), args...)
+	res, err := t.tx.ExecContext(ctx, t.d.rebind(q), args...)
+	return res, classify(err)
 }
 
 func (t *txn) QueryContext(ctx context.Context, q string, args ...any) (*sql.Rows, error) {
@@ -93,7 +97,7 @@ func (t *txn) QueryRowContext(ctx context.Context, q string, args ...any) *sql.R
 	return t.tx.QueryRowContext(ctx, t.d.rebind(q), args...)
 }
 
-func (t *txn) Commit() error   { return t.tx.Commit() }
+func (t *txn) Commit() error   { return classify(t.tx.Commit()) }
 func (t *txn) Rollback() error { return t.tx.Rollback() }
 
 // numberedPlaceholders rewrites each ? outside quoted literals as $1, $2, …

@@ -18,6 +18,9 @@ type RestoreReport struct {
 	Cases         int    // cases outside the trash in the restored library
 	SchemaVersion int    // after migrating the copy
 	KeptAside     string // where the replaced library now lies, or ""
+	// RemovedCopies are the temporary copies an earlier, killed restore
+	// had left beside the library, now removed.
+	RemovedCopies []string
 }
 
 // RestoreFile replaces the library at dest with a copy of the backup src.
@@ -46,6 +49,15 @@ func RestoreFile(ctx context.Context, src, dest string) (RestoreReport, error) {
 	}
 	if _, err := os.Stat(dest + "-wal"); err == nil {
 		return rep, calc.Errorf(calc.Conflict, "%s-wal exists: the library is open in a running fogbench (or one stopped uncleanly); stop it, then restore", dest)
+	}
+	// One restore of a folder at a time; the copies an earlier, killed
+	// restore left are removed first.
+	unlock, _ := lockFolder(filepath.Dir(dest), true)
+	defer unlock()
+	removed, err := removeRestoreCopies(dest)
+	rep.RemovedCopies = removed
+	if err != nil {
+		return rep, fmt.Errorf("store: restore: remove the copies an earlier restore left: %w", err)
 	}
 	suffix := make([]byte, 6)
 	if _, err := rand.Read(suffix); err != nil {

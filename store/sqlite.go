@@ -44,11 +44,11 @@ func openSQLite(ctx context.Context, path string) (*Store, error) {
 	s := newStore(conn{w, d}, path)
 	if err := pingSQLite(ctx, w, d); err != nil {
 		w.Close()
-		return nil, fmt.Errorf("store: open %s: %w", path, err)
+		return nil, openError(path, err)
 	}
 	if err := s.migrate(ctx, sqliteMigrations); err != nil {
 		w.Close()
-		return nil, err
+		return nil, openError(path, err)
 	}
 	r, err := sql.Open("sqlite3", dsn(path, true))
 	if err != nil {
@@ -57,6 +57,8 @@ func openSQLite(ctx context.Context, path string) (*Store, error) {
 	}
 	r.SetMaxOpenConns(4)
 	s.read = conn{r, d}
+	// Not being able to list the folder does not stop the library opening.
+	s.RemovedRestoreCopies, _ = RemoveStaleRestoreCopies(path)
 	return s, nil
 }
 
@@ -124,4 +126,20 @@ func (sqliteDialect) isBusy(err error) bool {
 func (sqliteDialect) isDuplicate(err error) bool {
 	var se sqlite3.Error
 	return errors.As(err, &se) && (se.ExtendedCode == sqlite3.ErrConstraintUnique || se.ExtendedCode == sqlite3.ErrConstraintPrimaryKey)
+}
+
+// openError names the real cause when SQLite could not open the library
+// for writing (a read-only folder or file system, a full disk), where its
+// own message can mislead ("no such file or directory").
+func openError(path string, err error) error {
+	if storageFault(err) != "" {
+		if why := whyNotWritable(path); why != nil {
+			return fmt.Errorf("store: open %s: the library cannot be written: %w", path, why)
+		}
+	}
+	var se *StorageError
+	if errors.As(err, &se) {
+		return fmt.Errorf("store: open %s: %w", path, err)
+	}
+	return fmt.Errorf("store: open %s: %w", path, classify(err))
 }

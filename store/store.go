@@ -38,6 +38,9 @@ type Store struct {
 	path  string
 	// Clock is the time source; tests replace it.
 	Clock func() time.Time
+	// RemovedRestoreCopies are the copies a killed restore had left beside
+	// the library, removed when it was opened (RemoveStaleRestoreCopies).
+	RemovedRestoreCopies []string
 }
 
 func newStore(w conn, path string) *Store {

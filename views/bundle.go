@@ -51,7 +51,11 @@ type BundleImportView struct {
 	Added      []BundleItem
 	Replaced   []BundleItem
 	Kept       []BundleItem
+	MaxBytes   int64 // the largest bundle the server takes
 }
+
+// MaxText is the bundle limit in MiB, for people.
+func (v BundleImportView) MaxText() string { return fmt.Sprintf("%d MiB", v.MaxBytes>>20) }
 
 // Count counts preview items by action.
 func (v BundleImportView) Count(action string) int {
