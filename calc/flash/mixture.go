@@ -201,7 +201,7 @@ func (m Binary) FlashOffset(T, p, d1 float64) (Split, error) {
 		return x2, y2, x2 > 0 && x2 < 1 && y2 > 0 && y2 < 1
 	}
 	none := func() error {
-		return fmt.Errorf("T = %s K, p = %s Pa: %w", valid.FormatValue(T), valid.FormatValue(p), ErrNoTwoPhase)
+		return fmt.Errorf("at T = %s K, p = %s Pa: %w", valid.FormatValue(T), valid.FormatValue(p), ErrNoTwoPhase)
 	}
 	x2, y2, ok := split(lk1, lk2)
 	if !ok {

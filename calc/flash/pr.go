@@ -148,7 +148,7 @@ func (m PengRobinson) spinodals(T float64) (a, b, yl, yv float64, err error) {
 	a, b = m.params(T)
 	target := a / (b * phys.GasConstant * T)
 	if !(target > prFc) {
-		return a, b, 0, 0, fmt.Errorf("T = %s K ≥ Tc = %s K: %w", valid.FormatValue(T), valid.FormatValue(m.Tc), ErrSupercritical)
+		return a, b, 0, 0, fmt.Errorf("at T = %s K ≥ Tc = %s K: %w", valid.FormatValue(T), valid.FormatValue(m.Tc), ErrSupercritical)
 	}
 	g := func(y float64) float64 { return spinodalF(y) - target }
 	yc := prXc - 1

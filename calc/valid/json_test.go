@@ -25,6 +25,7 @@ type jsonCase struct {
 	Edges  []float64          `json:"edges_m,omitempty"`
 	Off    bool               `json:"no_transition,omitempty"`
 	Raw    json.RawMessage    `json:"case,omitempty"`
+	//lint:ignore U1000 an unexported field, which a document cannot set: "hidden" in JSON is an unknown field
 	hidden int
 }
 
