@@ -209,13 +209,13 @@ func resultRows(cs []views.CompareCase, d views.Display) []views.CompareRow {
 			return f(r.Equilibrium), true
 		}
 	}
-	for sym, n := range map[string]int{"p_flat": 5, "exp[v_L (p − p_sat)/(R T)]": 6, "φ_sat/φ_v": 6, "p_flat/p_sat": 6, "1 − x_L": 4, "T_c,mix": 5} {
+	for sym, n := range map[string]int{"p_flat": 5, "": 6, "φ_sat/φ_v": 6, "p_flat/p_sat": 6, "1 − x_L": 4, "T_c,mix": 5} {
 		dropEmpty[sym], sig[sym] = true, n
 	}
 	picks = append(picks,
 		pick{label: "Vapour pressure over a flat surface at the gas pressure", sym: "p_flat", unit: pu.Symbol,
 			get: eq(func(e *calc.Equilibrium) float64 { return pu.FromSI(e.FlatVaporPressurePa) })},
-		pick{label: "Poynting factor (liquid at the gas pressure)", sym: "exp[v_L (p − p_sat)/(R T)]",
+		pick{label: "Poynting factor (liquid at the gas pressure)", sym: "",
 			get: eq(func(e *calc.Equilibrium) float64 { return e.PoyntingFactor })},
 		pick{label: "Vapour fugacity factor", sym: "φ_sat/φ_v",
 			get: eq(func(e *calc.Equilibrium) float64 { return e.FugacityFactor })},
