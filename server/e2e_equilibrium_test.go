@@ -17,6 +17,7 @@ import (
 // mark and its legend. Screenshots go with the journey's others.
 func TestE2EEquilibriumPanel(t *testing.T) {
 	e := newE2E(t)
+	var ids []string
 	for _, k := range highPressureCases() {
 		if k.Gas.TemperatureK == 900 {
 			continue // the two others show both kinds of table
@@ -29,6 +30,7 @@ func TestE2EEquilibriumPanel(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
+		ids = append(ids, itoa(rec.ID))
 		e.do("open "+k.Name, chromedp.Navigate(e.base+"/cases/"+itoa(rec.ID)))
 		for _, f := range views.EquilibriumFiguresOf(views.Display{}, res.Equilibrium) {
 			want := strings.TrimSpace(f.Value + " " + f.Unit)
@@ -49,5 +51,17 @@ func TestE2EEquilibriumPanel(t *testing.T) {
 				t.Errorf("lifetime cell %q", c)
 			}
 		}
+		// The print report shows the same block.
+		e.do("report "+k.Name, chromedp.Navigate(e.base+"/cases/"+itoa(rec.ID)+"/report"))
+		if got := e.text(`[data-testid="eq-enhancement"]`); got != views.EquilibriumFiguresOf(views.Display{}, res.Equilibrium)[3].Value {
+			t.Errorf("%s report: enhancement %q", k.Name, got)
+		}
+		e.shot("report-" + strings.ReplaceAll(k.Name, " ", "-"))
 	}
+	// The comparison lists the equilibrium rows.
+	e.do("compare", chromedp.Navigate(e.base+"/compare?ids="+strings.Join(ids, ",")+"&base="+ids[0]))
+	if got := e.text(`[data-testid="compare-results"]`); !strings.Contains(got, "Enhancement over p_sat") {
+		t.Errorf("compare results %q", got)
+	}
+	e.shot("compare")
 }
