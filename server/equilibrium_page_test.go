@@ -189,6 +189,17 @@ func TestPagesShowSurfaceEquilibrium(t *testing.T) {
 				t.Errorf("%s summary CSV %s = %q, want %v", k.Name, name, rows[1][i], v)
 			}
 		}
+		// bins.csv: one transcritical flag per class, as calc marks it.
+		bins := readCSVRows(t, ts.URL+"/cases/"+id+"/bins.csv")
+		last := len(bins[0]) - 1
+		if bins[0][last] != "transcritical" || len(bins) != len(res.Bins)+1 {
+			t.Fatalf("bins CSV header %q, %d rows", bins[0], len(bins))
+		}
+		for i, b := range res.Bins {
+			if got := bins[i+1][last]; got != strconv.FormatBool(b.Transcritical) {
+				t.Errorf("%s bins CSV class %d: transcritical %q", k.Name, i+1, got)
+			}
+		}
 		if got := rows[1][col["equilibrium_method"]]; got != e.Method {
 			t.Errorf("%s summary CSV method %q", k.Name, got)
 		}

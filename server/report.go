@@ -113,7 +113,7 @@ func attachment(rec store.CaseRecord, what, ext string) string {
 var binsCSVHeader = []string{
 	"d_lo (um)", "d_hi (um)", "d (um)", "number_fraction (-)", "volume_fraction (-)",
 	"laplace_pressure (Pa)", "vapor_pressure (Pa)", "kelvin_ratio (-)", "evaporation_enhancement (-)",
-	"lifetime (s)", "surface_temperature (K)", "knudsen (-)", "regime", "evaporation_rate (kg/s)",
+	"lifetime (s)", "surface_temperature (K)", "knudsen (-)", "regime", "evaporation_rate (kg/s)", "transcritical",
 }
 
 // writeBinsCSV writes one row per size class at full precision.
@@ -124,6 +124,7 @@ func writeBinsCSV(w io.Writer, res *calc.Result) error {
 			csvNum(b.DLoM * 1e6), csvNum(b.DHiM * 1e6), csvNum(b.DM * 1e6), csvNum(b.NumberFraction), csvNum(b.VolumeFraction),
 			csvNum(b.LaplacePa), csvNum(b.VaporPressurePa), csvNum(b.KelvinRatio), csvNum(b.EvaporationEnhancement),
 			csvOpt(b.LifetimeS, 1), csvNum(b.SurfaceTemperatureK), csvNum(b.Knudsen), textCell(b.Regime), csvNum(b.EvaporationRateKgS),
+			textCell(strconv.FormatBool(b.Transcritical)),
 		})
 	}
 	return writeCSVRows(w, rows...)
