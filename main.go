@@ -313,11 +313,7 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
 	defer stop()
 	array := calc.IsArray(data)
-	failed := func(i int, err error) int {
-		where := name
-		if len(cases) > 1 {
-			where = fmt.Sprintf("%s: case %d", name, i+1)
-		}
+	failedAs := func(where string, err error) int {
 		fmt.Fprintf(stderr, "fogbench eval: %s: %v\n", where, oneLine(err))
 		switch calc.ErrorCode(err) {
 		case calc.Internal:
@@ -326,6 +322,13 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			return 130
 		}
 		return 2
+	}
+	failed := func(i int, err error) int {
+		where := name
+		if len(cases) > 1 {
+			where = fmt.Sprintf("%s: case %d", name, i+1)
+		}
+		return failedAs(where, err)
 	}
 	if !array && isTerminal(stdout) {
 		// A single case printed to a terminal is indented for reading.
@@ -359,9 +362,11 @@ func evalCmd(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		return 130
 	}
 	code := 0
-	for i, err := range errs {
+	for _, err := range errs {
 		if err != nil {
-			if c := failed(i, err); code == 0 {
+			// The error names its case already (calc.InBatch).
+			c := failedAs(name, err)
+			if code == 0 {
 				code = c
 			}
 		}
@@ -392,6 +397,9 @@ func encodeBatch(ctx context.Context, cases []calc.Case, workers int) ([][]byte,
 			if calc.ErrorCode(err) == calc.Canceled {
 				return err
 			}
+			// The list index names the case as POST /api/evaluate and
+			// decoding name it: "[1].distribution.q", else "case 2: ".
+			err = calc.InBatch(i, err)
 			errs[i] = err
 			outs[i], err = json.Marshal(calc.NewCaseError(err))
 		}

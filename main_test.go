@@ -277,17 +277,18 @@ func TestEvalBatchWritesEachCaseError(t *testing.T) {
 		}
 		var e calc.CaseError
 		if err := json.Unmarshal(mustMarshal(t, res[1]), &e); err != nil || e.Code != calc.Invalid ||
-			len(e.Fields) != 1 || e.Fields[0].Field != "distribution.q" {
+			len(e.Fields) != 1 || e.Fields[0].Field != "[1].distribution.q" {
 			t.Errorf("case 2: error object %s (%v)", res[1], err)
 		}
 		e = calc.CaseError{}
 		if err := json.Unmarshal(mustMarshal(t, res[3]), &e); err != nil || e.Code != calc.Invalid ||
-			len(e.Fields) == 0 || e.Fields[0].Field != "gas.temperature_k" {
+			len(e.Fields) == 0 || e.Fields[0].Field != "[3].gas.temperature_k" {
 			t.Errorf("case 4: error object %s (%v)", res[3], err)
 		}
 		msg := errb.String()
-		if !strings.Contains(msg, "case 2: ") || !strings.Contains(msg, "case 4: ") || strings.Count(msg, "\n") != 2 {
-			t.Errorf("strict %v: stderr %q: want one line for case 2 and one for case 4", strict, msg)
+		// The list index names each case as POST /api/evaluate names it.
+		if !strings.Contains(msg, "[1].distribution.q") || !strings.Contains(msg, "[3].gas.temperature_k") || strings.Count(msg, "\n") != 2 {
+			t.Errorf("strict %v: stderr %q: want one line for [1] and one for [3], named as the API names them", strict, msg)
 		}
 	}
 }

@@ -122,3 +122,17 @@ func NewCaseError(err error) CaseError {
 	}
 	return ce
 }
+
+// InBatch names the case at list index i (from 0) of an array of cases in
+// its error, the same way decoding names it: field errors get the "[i]."
+// prefix ("[1].distribution.q"), other errors "case i+1: " in front. The
+// error code is kept. POST /api/evaluate and `fogbench eval` both use it.
+func InBatch(i int, err error) error {
+	if err == nil {
+		return nil
+	}
+	if len(FieldErrors(err)) > 0 {
+		return valid.Within(fmt.Sprintf("[%d]", i), err)
+	}
+	return fmt.Errorf("case %d: %w", i+1, err)
+}

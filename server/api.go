@@ -42,13 +42,9 @@ func (s *Server) handleAPIEvaluate(w http.ResponseWriter, r *http.Request) {
 				s.apiError(w, r, err)
 				return
 			}
-			if len(calc.FieldErrors(err)) > 0 {
-				// The list index names the case, as for a decoding error:
-				// "[1].gas.pressure_pa".
-				err = valid.Within(fmt.Sprintf("[%d]", i), err)
-			} else {
-				err = fmt.Errorf("case %d: %w", i+1, err)
-			}
+			// The list index names the case, as for a decoding error:
+			// "[1].gas.pressure_pa" (calc.InBatch; eval does the same).
+			err = calc.InBatch(i, err)
 			if strict || calc.ErrorCode(err) == calc.Canceled {
 				s.apiError(w, r, err)
 				return

@@ -167,6 +167,9 @@ func resultRows(cs []views.CompareCase, d views.Display) []views.CompareRow {
 		label, sym, unit string
 		get              func(r *calc.Result) (float64, bool)
 	}
+	// Rows left out when no case has them, and the figures they show.
+	dropEmpty := map[string]bool{"Ṅ": true}
+	sig := map[string]int{}
 	val := func(f func(r *calc.Result) float64) func(r *calc.Result) (float64, bool) {
 		return func(r *calc.Result) (float64, bool) { return f(r), true }
 	}
@@ -197,10 +200,41 @@ func resultRows(cs []views.CompareCase, d views.Display) []views.CompareRow {
 		{"Laplace pressure 1 atm at", "d", "µm", val(func(r *calc.Result) float64 { return r.Curvature.LaplaceOneAtmDM * 1e6 })},
 		{"Drops per second", "Ṅ", "1/s", opt(func(r *calc.Result) *float64 { return r.Summary.DropsPerSecond }, 1)},
 	}
+	pu, Tu := units.Default(d.System, units.Pressure), units.Default(d.System, units.Temperature)
+	eq := func(f func(e *calc.Equilibrium) float64) func(r *calc.Result) (float64, bool) {
+		return func(r *calc.Result) (float64, bool) {
+			if r.Equilibrium == nil {
+				return 0, false
+			}
+			return f(r.Equilibrium), true
+		}
+	}
+	for sym, n := range map[string]int{"p_flat": 5, "": 6, "φ_sat/φ_v": 6, "p_flat/p_sat": 6, "1 − x_L": 4, "T_c,mix": 5} {
+		dropEmpty[sym], sig[sym] = true, n
+	}
+	picks = append(picks,
+		pick{label: "Vapour pressure over a flat surface at the gas pressure", sym: "p_flat", unit: pu.Symbol,
+			get: eq(func(e *calc.Equilibrium) float64 { return pu.FromSI(e.FlatVaporPressurePa) })},
+		pick{label: "Poynting factor (liquid at the gas pressure)", sym: "",
+			get: eq(func(e *calc.Equilibrium) float64 { return e.PoyntingFactor })},
+		pick{label: "Vapour fugacity factor", sym: "φ_sat/φ_v",
+			get: eq(func(e *calc.Equilibrium) float64 { return e.FugacityFactor })},
+		pick{label: "Enhancement over p_sat", sym: "p_flat/p_sat",
+			get: eq(func(e *calc.Equilibrium) float64 { return e.EnhancementFactor })},
+		pick{label: "Gas dissolved in the liquid", sym: "1 − x_L", unit: "mol %",
+			get: eq(func(e *calc.Equilibrium) float64 { return e.DissolvedGasMoleFraction * 100 })},
+		pick{label: "Mixture critical temperature", sym: "T_c,mix", unit: Tu.Symbol,
+			get: func(r *calc.Result) (float64, bool) {
+				if r.Equilibrium == nil || r.Equilibrium.MixtureCriticalTemperatureK == nil {
+					return 0, false
+				}
+				return Tu.FromSI(*r.Equilibrium.MixtureCriticalTemperatureK), true
+			}},
+	)
 	var rows []views.CompareRow
 	for _, p := range picks {
 		row := views.CompareRow{Label: p.label, Symbol: p.sym, Unit: p.unit, Numeric: true,
-			Values: make([]float64, len(cs)), Has: make([]bool, len(cs))}
+			Values: make([]float64, len(cs)), Has: make([]bool, len(cs)), Sig: sig[p.sym]}
 		found := false
 		for i, c := range cs {
 			if c.Result == nil {
@@ -212,7 +246,7 @@ func resultRows(cs []views.CompareCase, d views.Display) []views.CompareRow {
 				found = true
 			}
 		}
-		if found || p.sym != "Ṅ" { // drop the flow row only when no case gives a flow
+		if found || !dropEmpty[p.sym] { // drop the flow and equilibrium rows only when no case gives them
 			rows = append(rows, row)
 		}
 	}

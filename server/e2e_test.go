@@ -27,6 +27,7 @@ import (
 	"fogbench/calc"
 	"fogbench/calc/sizedist"
 	"fogbench/calc/units"
+	"fogbench/store"
 	"fogbench/views"
 )
 
@@ -42,6 +43,7 @@ func e2eBrowser() string {
 type e2e struct {
 	t     *testing.T
 	ctx   context.Context
+	st    *store.Store // the server's library, for cases a journey starts from
 	base  string
 	shots string
 	n     int
@@ -97,7 +99,7 @@ func newE2E(t *testing.T) *e2e {
 		t.Fatal(err)
 	}
 	t.Logf("screenshots in %s", shots)
-	return &e2e{t: t, ctx: tab, base: ts.URL, shots: shots}
+	return &e2e{t: t, ctx: tab, st: st, base: ts.URL, shots: shots}
 }
 
 // do runs steps with a time limit, failing the test with what was being done.

@@ -113,7 +113,7 @@ func attachment(rec store.CaseRecord, what, ext string) string {
 var binsCSVHeader = []string{
 	"d_lo (um)", "d_hi (um)", "d (um)", "number_fraction (-)", "volume_fraction (-)",
 	"laplace_pressure (Pa)", "vapor_pressure (Pa)", "kelvin_ratio (-)", "evaporation_enhancement (-)",
-	"lifetime (s)", "surface_temperature (K)", "knudsen (-)", "regime", "evaporation_rate (kg/s)",
+	"lifetime (s)", "surface_temperature (K)", "knudsen (-)", "regime", "evaporation_rate (kg/s)", "transcritical",
 }
 
 // writeBinsCSV writes one row per size class at full precision.
@@ -124,6 +124,7 @@ func writeBinsCSV(w io.Writer, res *calc.Result) error {
 			csvNum(b.DLoM * 1e6), csvNum(b.DHiM * 1e6), csvNum(b.DM * 1e6), csvNum(b.NumberFraction), csvNum(b.VolumeFraction),
 			csvNum(b.LaplacePa), csvNum(b.VaporPressurePa), csvNum(b.KelvinRatio), csvNum(b.EvaporationEnhancement),
 			csvOpt(b.LifetimeS, 1), csvNum(b.SurfaceTemperatureK), csvNum(b.Knudsen), textCell(b.Regime), csvNum(b.EvaporationRateKgS),
+			textCell(strconv.FormatBool(b.Transcritical)),
 		})
 	}
 	return writeCSVRows(w, rows...)
@@ -139,6 +140,9 @@ var summaryCSVHeader = []string{
 	"drop_temperature_model", "liquid_temperature (K)", "injection_temperature (K)",
 	"convection", "transition_correction", "accommodation_coefficient (-)",
 	"atomizer_correlation", "atomizer_source", "atomizer_status",
+	"equilibrium_surface_temperature (K)", "flat_vapor_pressure (Pa)", "poynting_factor (-)", "fugacity_factor (-)",
+	"enhancement_factor (-)", "dissolved_gas_mole_fraction (-)", "latent_heat_at_surface (J/kg)",
+	"mixture_critical_temperature (K)", "equilibrium_method",
 }
 
 // modelCSVCells are the model columns of a summary row: how the drop
@@ -184,7 +188,22 @@ func summaryCSVRow(rec store.CaseRecord, res *calc.Result) []csvCell {
 		csvNum(c.ReferenceTemperatureK), csvInt(int64(len(res.Warnings))),
 	}
 	row = append(row, modelCSVCells(rec.Case)...)
-	return append(row, atomizerCSVCells(res)...)
+	row = append(row, atomizerCSVCells(res)...)
+	return append(row, equilibriumCSVCells(res)...)
+}
+
+// equilibriumCSVCells are the flat-surface equilibrium at the gas pressure
+// at the reference surface temperature, full precision in SI; empty when
+// the result has no equilibrium block. The method is text and goes through
+// the formula guard.
+func equilibriumCSVCells(res *calc.Result) []csvCell {
+	e := res.Equilibrium
+	if e == nil {
+		return textCells(make([]string, 9))
+	}
+	return []csvCell{csvNum(e.TemperatureK), csvNum(e.FlatVaporPressurePa), csvNum(e.PoyntingFactor), csvNum(e.FugacityFactor),
+		csvNum(e.EnhancementFactor), csvNum(e.DissolvedGasMoleFraction), csvNum(e.LatentHeatJKg),
+		csvOpt(e.MixtureCriticalTemperatureK, 1), textCell(e.Method)}
 }
 
 // atomizerCSVCells are the correlation that sized the drops, its published

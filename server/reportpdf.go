@@ -482,6 +482,12 @@ func (p *pdfReport) body() {
 		p.figureTable(v.SummaryFigures(), true)
 		p.subheading("Curvature", v.MethodRefs("laplace", "equilibrium", "kelvin", "evaporation"))
 		p.figureTable(v.CurvatureFigures(), true)
+		if eq := v.EquilibriumFigures(); len(eq) > 0 {
+			p.subheading("Surface equilibrium at the gas pressure", v.MethodRefs("equilibrium"))
+			p.paragraph("At the reference surface temperature "+v.EquilibriumTemperature()+".", "", 8.5, colMuted)
+			p.figureTable(views.PlainFigures(eq), true)
+			p.paragraph("Method: "+v.EquilibriumMethod(), "", 8, colMuted)
+		}
 		if sh := v.SuperheatView(); sh.S != nil {
 			p.subheading("Superheat and flashing: "+sh.S.Regime, "")
 			p.figureTable(sh.Figures(), true)
@@ -586,6 +592,12 @@ func (p *pdfReport) binTable() {
 	}
 	hh, _ := p.rowHeight(widths, heads, headStyle, 0.8)
 	note := v.GrowthNote()
+	if tn := v.TranscriticalNote(); tn != "" {
+		if note != "" {
+			note += "\n"
+		}
+		note += tn
+	}
 	nh := 0.0
 	if note != "" {
 		p.font("", 8)
@@ -613,6 +625,15 @@ func (p *pdfReport) binTable() {
 			for j, c := range cells {
 				if c == views.GrowsLifetime {
 					cells[j] = strings.Replace(c, " (", "\n(", 1)
+				}
+			}
+		}
+		if b.Transcritical {
+			st := colWarnBg
+			bg = &st
+			for j, c := range cells {
+				if c == views.TranscriticalLifetime {
+					cells[j] = strings.Replace(c, " ", "\n", 1)
 				}
 			}
 		}

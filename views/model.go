@@ -250,6 +250,10 @@ type BinRow struct {
 	// Grows marks a class above the Kelvin critical size in supersaturated
 	// surroundings: its drops grow by condensation instead of evaporating.
 	Grows bool
+	// Transcritical marks a class whose surface reaches the mixture
+	// critical point (its lifetime cell says so; TranscriticalNote is the
+	// legend).
+	Transcritical bool
 }
 
 // GrowsLifetime is the lifetime cell of a class that grows.
@@ -265,6 +269,8 @@ func (v CaseView) BinRows() []BinRow {
 		life := "never"
 		grows := b.Grows != nil && *b.Grows
 		switch {
+		case b.Transcritical:
+			life = TranscriticalLifetime
 		case grows:
 			life = GrowsLifetime
 		case b.LifetimeS != nil:
@@ -284,6 +290,7 @@ func (v CaseView) BinRows() []BinRow {
 			Kn:            Num(b.Knudsen, 3),
 			Regime:        b.Regime,
 			Grows:         grows,
+			Transcritical: b.Transcritical,
 		}
 	}
 	return rows
@@ -421,4 +428,93 @@ func numberMean(label, sym string, v *float64) Figure {
 		return Figure{Label: label, Symbol: sym, Value: "does not exist", Hint: "the model's number distribution has no such mean (see the warnings)"}
 	}
 	return Figure{Label: label, Symbol: sym, Value: Micro(*v), Unit: "µm"}
+}
+
+// EquilibriumFigure is one figure of the surface equilibrium block, with the
+// test id the pages carry.
+type EquilibriumFigure struct {
+	Figure
+	ID string // data-testid suffix: "eq-" + ID
+}
+
+// EquilibriumFigures are the flat-surface equilibrium at the gas pressure
+// (calc's equilibrium block at the reference surface temperature) in the
+// engineer's words and the display units; nil when the result has none.
+func (v CaseView) EquilibriumFigures() []EquilibriumFigure {
+	if v.Result == nil || v.Result.Equilibrium == nil {
+		return nil
+	}
+	return EquilibriumFiguresOf(v.Display, v.Result.Equilibrium)
+}
+
+// EquilibriumFiguresOf formats an equilibrium block in display units d.
+func EquilibriumFiguresOf(d Display, e *calc.Equilibrium) []EquilibriumFigure {
+	if e == nil {
+		return nil
+	}
+	figs := []EquilibriumFigure{
+		{ID: "flat-pressure", Figure: Figure{Label: "Vapour pressure over a flat surface at the gas pressure", Symbol: "p_flat",
+			Value: d.Value(units.Pressure, e.FlatVaporPressurePa, 5), Unit: d.Unit(units.Pressure),
+			Hint: "equilibrium partial pressure of the vapour over a flat surface of the liquid, at the surface temperature " + d.Quantity(units.Temperature, e.TemperatureK, 4)}},
+		{ID: "poynting", Figure: Figure{Label: "Poynting factor (liquid at the gas pressure)",
+			Value: fmt.Sprintf("%.6f", e.PoyntingFactor), Hint: "exp[v_L (p − p_sat)/(R T)]: the liquid's fugacity raised from p_sat to the gas pressure"}},
+		{ID: "fugacity", Figure: Figure{Label: "Vapour fugacity factor", Symbol: "φ_sat/φ_v", Value: fmt.Sprintf("%.6f", e.FugacityFactor)}},
+		{ID: "enhancement", Figure: Figure{Label: "Enhancement over p_sat", Symbol: "p_flat/p_sat", Value: fmt.Sprintf("%.6f", e.EnhancementFactor)}},
+		{ID: "dissolved", Figure: Figure{Label: "Gas dissolved in the liquid", Symbol: "1 − x_L", Value: Num(e.DissolvedGasMoleFraction*100, 4), Unit: "mol %"}},
+	}
+	if e.MixtureCriticalTemperatureK != nil {
+		figs = append(figs, EquilibriumFigure{ID: "critical", Figure: Figure{Label: "Mixture critical temperature", Symbol: "T_c,mix",
+			Value: d.Value(units.Temperature, *e.MixtureCriticalTemperatureK, 5), Unit: d.Unit(units.Temperature),
+			Hint: "surface temperature at which the surface reaches the mixture critical point at the gas pressure"}})
+	}
+	return figs
+}
+
+// EquilibriumTemperature is the surface temperature the equilibrium block
+// is evaluated at, in display units, or "".
+func (v CaseView) EquilibriumTemperature() string {
+	if v.Result == nil || v.Result.Equilibrium == nil {
+		return ""
+	}
+	return v.Display.Quantity(units.Temperature, v.Result.Equilibrium.TemperatureK, 4)
+}
+
+// EquilibriumMethod is the method text of the equilibrium block with its
+// citations, or "".
+func (v CaseView) EquilibriumMethod() string {
+	if v.Result == nil || v.Result.Equilibrium == nil {
+		return ""
+	}
+	return v.Result.Equilibrium.Method
+}
+
+// TranscriticalLifetime is the lifetime cell of a class whose surface
+// reaches the mixture critical point.
+const TranscriticalLifetime = "transcritical ‡"
+
+// TranscriticalNote is the legend of the transcritical mark; empty when no
+// class is transcritical.
+func (v CaseView) TranscriticalNote() string {
+	if v.Result == nil {
+		return ""
+	}
+	n := 0
+	for _, b := range v.Result.Bins {
+		if b.Transcritical {
+			n++
+		}
+	}
+	if n == 0 {
+		return ""
+	}
+	return fmt.Sprintf("‡ Transcritical: the surface of %d of %d classes reaches the mixture critical point of liquid and gas; past it the drop mixes as a dense fluid, which this model does not follow, so those classes have no lifetime (see the warnings).", n, len(v.Result.Bins))
+}
+
+// PlainFigures drops the test ids.
+func PlainFigures(e []EquilibriumFigure) []Figure {
+	out := make([]Figure, len(e))
+	for i, f := range e {
+		out[i] = f.Figure
+	}
+	return out
 }
