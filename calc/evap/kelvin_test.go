@@ -10,7 +10,7 @@ import (
 )
 
 // Stub check against IAPWS R7-97(2012) Table 35 and IAPWS R1-76(2014)
-// Table 1 (REFERENCE-DATA §1.1, §1.2 [read]), so the water used below is the
+// Table 1 (values read in the releases), so the water used below is the
 // published water.
 func TestWaterStub(t *testing.T) {
 	const tolPsat = 1e-8
@@ -28,7 +28,7 @@ func TestWaterStub(t *testing.T) {
 }
 
 // Laplace pressure of water at 25 °C, σ = 0.0719722 N/m (IAPWS R1-76);
-// values [computed] in REFERENCE-DATA §3 from Δp = 2σ/r.
+// values computed from Δp = 2σ/r (Young–Laplace).
 func TestLaplacePressure(t *testing.T) {
 	const tol = 1e-5
 	sigma := r176SurfaceTension(298.15)
@@ -50,7 +50,7 @@ func TestLaplacePressure(t *testing.T) {
 	}
 }
 
-// Kelvin ratios for water at 298.15 K, REFERENCE-DATA §3 [computed]:
+// Kelvin ratios for water at 298.15 K, computed from the Kelvin equation:
 // σ = 0.0719722 N/m, V_m = 0.018015268/997.047013 = 1.80686244e-5 m3/mol,
 // Kelvin length 2σV_m/(RT) = 2·0.0719722·1.80686244e-5/(8.314462618·298.15)
 // = 1.049182 nm; S = exp(1.049182 nm / r).
@@ -84,7 +84,7 @@ func TestKelvinRatio(t *testing.T) {
 	}
 }
 
-// Evaporation enhancement by curvature, REFERENCE-DATA §3 [computed]: water
+// Evaporation enhancement by curvature, computed by independent arithmetic: water
 // in dry air at 101325 Pa with B_M evaluated at the same temperature;
 // E = ln(1+B_M(r))/ln(1+B_M(∞)).
 func TestEnhancementIsothermal(t *testing.T) {
@@ -116,7 +116,7 @@ func TestEnhancementIsothermal(t *testing.T) {
 	}
 }
 
-// Enhancement at the dry-air wet-bulb state, REFERENCE-DATA §3 [computed]:
+// Enhancement at the dry-air wet-bulb state, computed by independent arithmetic:
 // T_s = 281.4211 K, σ = σ_R1-76(T_s) ≈ 0.07447 N/m, ρ_L = 999.86 kg/m3, so the
 // Kelvin length is 1.14692 nm; p_sat = 1092.956 Pa, B_M(∞) = 0.006782.
 func TestEnhancementWetBulb(t *testing.T) {

@@ -20,7 +20,7 @@ func liquidWithB(b, mv, mg, p, rho, latent float64) testLiquid {
 	return testLiquid{molarMass: mv, psat: constant(xs * p), sigma: constant(0.03), rho: rho, latent: constant(latent), cp: 2000}
 }
 
-// Worked lifetime E1, REFERENCE-DATA §6.5 [computed]: water in dry still air
+// Worked lifetime E1, computed by hand from the d² law: water in dry still air
 // with stated properties ρ_g = 1.2, D = 2.5e-5, B_M = 0.00678, ρ_L = 1000:
 // K = 8 ρ_g D ln(1+B_M)/ρ_L = 1.62171e-9 m2/s.
 func TestLifetimeE1(t *testing.T) {
@@ -48,7 +48,7 @@ func TestLifetimeE1(t *testing.T) {
 	}
 }
 
-// Worked lifetime E2, REFERENCE-DATA §6.5 [computed]: n-hexane in hot
+// Worked lifetime E2, computed by hand from the d² law: n-hexane in hot
 // quiescent N2. The setup is modelled on Turns' ch. 10 example, from memory;
 // Turns' printed answers are not reproduced. T_∞ = 850 K, T_s = 342 K,
 // h_fg = 335e3, c_p,g = 2850, k_g = 0.0425, ρ_L = 659: B_T = 4.32179,
@@ -114,7 +114,7 @@ func TestLifetimeD2Law(t *testing.T) {
 }
 
 // Steady drop temperature of water in dry air at 25 °C, 1 atm,
-// REFERENCE-DATA §6.6 [computed]: Le = 1, c_p,g = 1006, IF97 p_sat and
+// computed by independent arithmetic: Le = 1, c_p,g = 1006, IF97 p_sat and
 // L = 2.501e6 − 2369 (T − 273.15) give 281.4211 K; the Abramzon–Sirignano
 // stagnant form with c_p,v = 1870 gives 8.248 °C (Le = 1) and 6.948 °C
 // (Le = 0.85).
@@ -151,7 +151,7 @@ func TestSteadyTemperatureWater(t *testing.T) {
 }
 
 // Psychrometric wet-bulb temperatures, ASHRAE Handbook—Fundamentals (2017)
-// ch. 1 eqs. 33/35 with eqs. 5–6, REFERENCE-DATA §6.6 [computed with those
+// ch. 1 eqs. 33/35 with eqs. 5–6 [computed with those
 // equations, read in psychrolib]. The dry-air droplet model with Le = 1 and
 // c_p,g = 1006 reproduces the dry case to 0.05 K; a droplet with a realistic
 // Le = 0.85 (and c_p,v = 1870) runs 1–1.5 K colder, asserted within ±2 K.

@@ -27,7 +27,7 @@ func (l testLiquid) HeatCapacity(T float64) float64       { return l.cp }
 func constant(v float64) func(float64) float64 { return func(float64) float64 { return v } }
 
 // if97SaturationPressure is IAPWS R7-97(2012) eq. 30 (Region 4), T in K,
-// result in Pa. Coefficients from REFERENCE-DATA §1.1 [read], Table 34.
+// result in Pa. Coefficients read in the release, Table 34.
 func if97SaturationPressure(T float64) float64 {
 	const (
 		n1  = 0.11670521452767e4
@@ -50,14 +50,15 @@ func if97SaturationPressure(T float64) float64 {
 }
 
 // r176SurfaceTension is IAPWS R1-76(2014) for ordinary water, T in K,
-// result in N/m (REFERENCE-DATA §1.2 [read]).
+// result in N/m (coefficients read in the release).
 func r176SurfaceTension(T float64) float64 {
 	tau := 1 - T/647.096
 	return 235.8e-3 * math.Pow(tau, 1.256) * (1 - 0.625*tau)
 }
 
-// waterLatent is the linear latent heat used for the wet-bulb checks of
-// REFERENCE-DATA §6.6: L = 2.501e6 − 2369 (T − 273.15) J/kg.
+// waterLatent is the linear latent heat used for the wet-bulb checks, as
+// in the ASHRAE Handbook—Fundamentals ch. 1 psychrometric enthalpy (2501 kJ/kg
+// at 0 °C; the slope from memory): L = 2.501e6 − 2369 (T − 273.15) J/kg.
 func waterLatent(T float64) float64 { return 2.501e6 - 2369*(T-phys.ZeroCelsius) }
 
 // water is the test-only water: IF97 saturation, R1-76 surface tension,

@@ -10,8 +10,8 @@ import (
 	"fogbench/calc/phys"
 )
 
-// Ranz–Marshall (1952) and Frössling (1938) forms, REFERENCE-DATA §6.3
-// [computed] (the forms themselves are from memory).
+// Ranz–Marshall (1952) and Frössling (1938) forms, values computed by hand
+// (the forms were later read in open droplet-evaporation code that cites them).
 func TestRanzMarshallFrossling(t *testing.T) {
 	const tol = 1e-6
 	for _, c := range []struct{ re, pr, rm, fr float64 }{
@@ -29,8 +29,8 @@ func TestRanzMarshallFrossling(t *testing.T) {
 	}
 }
 
-// Abramzon & Sirignano (1989) F(B), Clift Sh0 and Sh*, REFERENCE-DATA §6.4
-// [computed] (forms from memory).
+// Abramzon & Sirignano (1989) F(B), Clift Sh0 and Sh*, values computed by hand
+// (forms later read in open code citing A–S eqs. 8/10/12/17/21/23).
 func TestAbramzonSirignano(t *testing.T) {
 	const tol = 1e-6
 	for _, c := range []struct{ b, f float64 }{
@@ -61,7 +61,7 @@ func TestAbramzonSirignano(t *testing.T) {
 	}
 }
 
-// Fuchs & Sutugin (1971) exact-coefficient form, REFERENCE-DATA §6.7
+// Fuchs & Sutugin (1971) exact-coefficient form, values computed by hand
 // [computed] (form read in the particula docs, as Seinfeld & Pandis eq. 12.43).
 func TestFuchsSutugin(t *testing.T) {
 	const tol = 1e-6
@@ -139,7 +139,7 @@ func TestFuchsSutuginLimits(t *testing.T) {
 }
 
 // Reference-state helper values are the integrator's; here the Spalding
-// numbers of REFERENCE-DATA §6.5 E2 [computed]: B_T = 2850·(850−342)/335e3.
+// numbers of worked lifetime E2 (lifetime_test.go), by hand: B_T = 2850·(850−342)/335e3.
 func TestSpaldingNumbers(t *testing.T) {
 	if got := SpaldingHeatNumber(2850, 850, 342, 335e3); !scalar.EqualWithinAbsOrRel(got, 4.32179, 0, 1e-5) {
 		t.Errorf("B_T = %.6g, want 4.32179", got)
