@@ -61,6 +61,9 @@ func CheckFilm(l *Liquid, g *Gas, p, Ts, Tinf, Ys, Yinf float64) ([]string, erro
 //
 //	x_v = (Yr/M_v) / (Yr/M_v + (1 - Yr)/M_g),  M = 1/(Yr/M_v + (1 - Yr)/M_g)
 //	density: ideal gas rho = p M/(R Tr)
+//	  (at pressure: Peng–Robinson, and the dense viscosity, conductivity
+//	  and diffusivity corrections of dense.go, phased in between 0.5 and
+//	  1 MPa)
 //	cp: mass-weighted cp = Yr cp_v + (1 - Yr) cp_g
 //	viscosity: Wilke (1950), Poling et al. 5th ed. eq. 9-5.13,
 //	  mu = sum_i x_i mu_i / sum_j x_j phi_ij,
