@@ -169,3 +169,24 @@ func TestDenseBlend(t *testing.T) {
 		t.Errorf("weight at the middle = %g, want 0.5", w)
 	}
 }
+
+// TestDenseFilmCacheMatchesDirect: the solvers' FilmCache (direct and
+// from its grid) carries the dense corrections as FilmProperties does, at
+// 40 bar.
+func TestDenseFilmCacheMatchesDirect(t *testing.T) {
+	l, _ := Lookup("n-dodecane")
+	g, _ := LookupGas("nitrogen")
+	c := NewFilmCache(l, g)
+	for i, ts := range []float64{450, 452.3, 455.7, 460.1, 470.9} {
+		want := FilmProperties(l, g, 4e6, ts, 800, 0.3, 0)
+		got := c.Properties(4e6, ts, 800, 0.3, 0)
+		if want.Compressibility == 1 {
+			t.Fatalf("no dense correction at 40 bar")
+		}
+		for _, pair := range [][2]float64{{got.Density, want.Density}, {got.Viscosity, want.Viscosity}, {got.Conductivity, want.Conductivity}, {got.Diffusivity, want.Diffusivity}, {got.Compressibility, want.Compressibility}} {
+			if math.Abs(pair[0]/pair[1]-1) > 1e-12 {
+				t.Errorf("state %d (Ts %g K): cache %.15g, direct %.15g", i, ts, pair[0], pair[1])
+			}
+		}
+	}
+}
