@@ -298,9 +298,10 @@ func chungG2(e1, e2, e3, e4, e5, y, g1 float64) float64 {
 
 // Chung et al. (1988) viscosity coefficients a_i, b_i, c_i, d_i of
 // E_i = a_i + b_i ω + c_i μr⁴ + d_i κ (Poling, Prausnitz & O'Connell, The
-// Properties of Gases and Liquids, 5th ed., Table 9-6; read in two
-// open-source implementations of Chung et al. 1988 found with the search
-// tool, which agree with each other).
+// Properties of Gases and Liquids, 5th ed., Table 9-6, not read; a_i and
+// b_i read in two open-source implementations of Chung et al. 1988 found
+// with the search tool, which agree with each other; c_i and d_i, the
+// polar terms, in one of them).
 var chungViscA = [10]float64{6.32402, 1.2102e-3, 5.28346, 6.62263, 19.74540, -1.89992, 24.27450, 0.79716, -0.23816, 0.068629}
 var chungViscB = [10]float64{50.41190, -1.1536e-3, 254.209, 38.0957, 7.63034, -12.53670, 3.44945, 1.11764, 0.067695, 0.34793}
 var chungViscC = [10]float64{-51.68, -6.2571e-3, -168.481, -8.46414, -14.35440, 4.98529, -11.29130, 0.012348, -0.8163, 0.59256}
