@@ -25,40 +25,10 @@ import (
 // van der Waals mixing for organic liquids, the IAPWS virial guideline and
 // Henry's constants for water.
 
-// gasEOS holds the Peng–Robinson constants of the carrier gases: N2 from
-// Span et al., J. Phys. Chem. Ref. Data 29 (2000) 1361 (Tc as in the
-// Lemmon & Jacobsen transport constants of calc/fluid; pc and ω from
-// memory); air as one pseudo-component with the constants of Lemmon et
-// al. (2000) (read in python3-iapws 1.5.2, humidAir.py Air).
-var gasEOS = map[string]flash.PengRobinson{
-	"nitrogen": {Tc: 126.192, Pc: 3.3958e6, Omega: 0.0372},
-	"air":      {Tc: 132.6306, Pc: 3.786e6, Omega: 0.0335},
-}
-
-// kijSource is the published table of the N2–liquid interaction parameters.
-const kijSource = "DECHEMA Peng–Robinson interaction parameters as distributed in ChemSep's pr.ipd (Kooijman & Taylor 2009; read in the copy in CalebBell/thermo)"
-
-// nitrogenKij gives k_ij of N2 with each built-in organic liquid and where
-// the value comes from. Values are tabulated for n-heptane (0.1441),
-// n-decane (0.1122) and methanol (−0.2141); the heavier n-alkanes take the
-// n-decane value and iso-octane the n-heptane value (the nearest
-// tabulated alkanes; an assumption, no source); ethanol and acetone have no
-// tabulated value and take 0.
-var nitrogenKij = map[string]struct {
-	k    float64
-	note string
-}{
-	"n-heptane":          {0.1441, "N2–n-heptane, tabulated"},
-	"n-decane":           {0.1122, "N2–n-decane, tabulated"},
-	"n-dodecane":         {0.1122, "the N2–n-decane value (no tabulated N2–n-dodecane value; assumption)"},
-	"kerosene-surrogate": {0.1122, "the N2–n-decane value (no tabulated N2–n-dodecane value; assumption)"},
-	"n-hexadecane":       {0.1122, "the N2–n-decane value (no tabulated N2–n-hexadecane value; assumption)"},
-	"diesel-surrogate":   {0.1122, "the N2–n-decane value (no tabulated N2–n-hexadecane value; assumption)"},
-	"iso-octane":         {0.1441, "the N2–n-heptane value (no tabulated N2–iso-octane value; assumption)"},
-	"methanol":           {-0.2141, "N2–methanol, tabulated"},
-	"ethanol":            {0, "0 (no tabulated N2–ethanol value)"},
-	"acetone":            {0, "0 (no tabulated N2–acetone value)"},
-}
+// The gases' Peng–Robinson constants (fluid.Gas.Critical) and the N2–liquid
+// interaction parameters with their source (fluid.FilmInteraction,
+// fluid.KijSource) live in calc/fluid, which uses them for the film at
+// pressure too.
 
 // surfaceEquilibrium implements evap.SurfaceEquilibrium for one case.
 type surfaceEquilibrium struct {
@@ -83,7 +53,8 @@ type surfaceEquilibrium struct {
 // newSurfaceEquilibrium builds the equilibrium of liquid l under gas g at
 // pressure p (Pa), or nil when the gas has no equation-of-state constants.
 func newSurfaceEquilibrium(l *fluid.Liquid, g *fluid.Gas, p float64) *surfaceEquilibrium {
-	ge, ok := gasEOS[g.ID]
+	gtc, gpc, gomega, ok := g.Critical()
+	ge := flash.PengRobinson{Tc: gtc, Pc: gpc, Omega: gomega}
 	if !ok {
 		return nil
 	}
@@ -93,10 +64,7 @@ func newSurfaceEquilibrium(l *fluid.Liquid, g *fluid.Gas, p float64) *surfaceEqu
 		s.method = fmt.Sprintf("water vapor in %s: fugacity coefficients by the IAPWS Guideline on a Virial Equation for the Fugacity of H2O in Humid Air (G11-15), dissolved gas by Henry's law with the IAPWS G7-04 constants, Poynting integral with the incompressible saturated liquid; latent heat at the surface from the guideline's vapor enthalpy departure and the liquid's enthalpy rise with pressure", g.Name)
 		return s
 	}
-	kij, note := 0.0, "0 (no tabulated value for a user liquid)"
-	if v, ok := nitrogenKij[l.ID]; ok {
-		kij, note = v.k, v.note
-	}
+	kij, note, _ := fluid.FilmInteraction(l)
 	s.bin = flash.Binary{
 		Liquid: flash.PengRobinson{Tc: l.CriticalTemperature(), Pc: l.CriticalPressure(), Omega: l.AcentricFactor()},
 		Gas:    ge, Kij: kij,
@@ -105,7 +73,7 @@ func newSurfaceEquilibrium(l *fluid.Liquid, g *fluid.Gas, p float64) *surfaceEqu
 	if g.ID == "air" {
 		gasWord = "air as one pseudo-component with the N2 value"
 	}
-	s.method = fmt.Sprintf("Peng–Robinson (1976) with van der Waals mixing for φ_v, φ_sat and the dissolved gas; k_ij = %.4g for %s: %s, %s; Poynting integral with the liquid's own molar volume, taken incompressible; latent heat at the surface from the liquid's L(T) corrected by Peng–Robinson departure functions", kij, gasWord, note, kijSource)
+	s.method = fmt.Sprintf("Peng–Robinson (1976) with van der Waals mixing for φ_v, φ_sat and the dissolved gas; k_ij = %.4g for %s: %s, %s; Poynting integral with the liquid's own molar volume, taken incompressible; latent heat at the surface from the liquid's L(T) corrected by Peng–Robinson departure functions", kij, gasWord, note, fluid.KijSource)
 	if p >= l.CriticalPressure() {
 		lo := math.Max(l.MeltingPoint(), 0.5*l.CriticalTemperature())
 		if tc, err := s.bin.CriticalTemperatureOffset(p, lo, s.offset); err == nil {
@@ -565,10 +533,10 @@ func (s *setup) equilibriumWarnings(cond *evap.Conditions, res *Result) {
 		return
 	}
 	if p > 1e6 {
-		if v, ok := nitrogenKij[s.liquid.ID]; !ok || strings.Contains(v.note, "assumption") || strings.Contains(v.note, "no tabulated") {
+		if _, vnote, ok := fluid.FilmInteraction(s.liquid); !ok || strings.Contains(vnote, "assumption") || strings.Contains(vnote, "no tabulated") {
 			note := "0, no tabulated value"
 			if ok {
-				note = v.note
+				note = vnote
 			}
 			res.Warnings = append(res.Warnings, fmt.Sprintf("No published nitrogen interaction parameter for %s was found: the surface equilibrium takes k_ij = %s. At %.4g bar that matters: for n-dodecane in N2 at 20–60 bar a change of ±0.03 in k_ij moves the surface vapor content by up to 2 %% and the dissolved gas by up to 7 %%.",
 				s.liquid.Name, note, p/1e5))

@@ -23,7 +23,7 @@ import (
 const (
 	MaxBins          = 2000
 	MinPressurePa    = 1e3   // 10 mbar
-	MaxPressurePa    = 2e7   // 200 bar: the ideal-gas film is far off beyond
+	MaxPressurePa    = 2e7   // 200 bar: beyond, the film's dense-gas corrections (calc/fluid/dense.go) are far from their data
 	MinGasTempK      = 200.0 // K
 	MaxGasTempK      = 2500.0
 	MaxRelVelocityMS = 500.0

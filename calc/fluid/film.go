@@ -13,7 +13,8 @@ type Film struct {
 	VaporMassFraction float64  `json:"vapor_mass_fraction"`        // reference vapor mass fraction
 	VaporMoleFraction float64  `json:"vapor_mole_fraction"`        // the same as a mole fraction
 	MolarMass         float64  `json:"molar_mass_kg_mol"`          // mixture molar mass, kg/mol
-	Density           float64  `json:"density_kg_m3"`              // ideal-gas mixture density, kg/m3
+	Density           float64  `json:"density_kg_m3"`              // mixture density, kg/m3 (Peng–Robinson above 0.5 MPa, see dense.go)
+	Compressibility   float64  `json:"compressibility"`            // Z of the film mixture as used (1: ideal gas)
 	Viscosity         float64  `json:"viscosity_pa_s"`             // Wilke mixture viscosity, Pa s
 	Conductivity      float64  `json:"conductivity_w_m_k"`         // Mason-Saxena mixture conductivity, W/(m K)
 	HeatCapacity      float64  `json:"heat_capacity_j_kg_k"`       // mass-weighted mixture cp, J/(kg K)
@@ -60,6 +61,9 @@ func CheckFilm(l *Liquid, g *Gas, p, Ts, Tinf, Ys, Yinf float64) ([]string, erro
 //
 //	x_v = (Yr/M_v) / (Yr/M_v + (1 - Yr)/M_g),  M = 1/(Yr/M_v + (1 - Yr)/M_g)
 //	density: ideal gas rho = p M/(R Tr)
+//	  (at pressure: Peng–Robinson, and the dense viscosity, conductivity
+//	  and diffusivity corrections of dense.go, phased in between 0.5 and
+//	  1 MPa)
 //	cp: mass-weighted cp = Yr cp_v + (1 - Yr) cp_g
 //	viscosity: Wilke (1950), Poling et al. 5th ed. eq. 9-5.13,
 //	  mu = sum_i x_i mu_i / sum_j x_j phi_ij,
@@ -98,6 +102,8 @@ type filmPure struct {
 	fl  fuller
 	fl1 *Liquid
 	flg *Gas
+	// The dense-film constants of the pair (dense.go).
+	dense denseFilm
 }
 
 // at fills pc for p, Ts, Tinf as FilmProperties takes them (held to the
@@ -123,6 +129,7 @@ func (pc *filmPure) atRef(l *Liquid, g *Gas, p, tr float64) {
 	if pc.fl1 != l || pc.flg != g {
 		pc.fl, pc.fl1, pc.flg = fullerPair(l, g), l, g
 	}
+	pc.setDense(l, g)
 	if tr > 0 && p > 0 && !math.IsInf(tr, 0) && !math.IsInf(p, 0) {
 		pc.diff = pc.fl.at(tr, p)
 	} else {
@@ -146,7 +153,7 @@ func (pc *filmPure) mix(Ys, Yinf float64) Film {
 	mu := xv*muv/(xv+xg*phiVG) + xg*mug/(xg+xv*phiGV)
 	k := xv*kv/(xv+xg*phiVG) + xg*kg/(xg+xv*phiGV)
 
-	return Film{
+	f := Film{
 		T:                 tr,
 		VaporMassFraction: yr,
 		VaporMoleFraction: xv,
@@ -158,6 +165,16 @@ func (pc *filmPure) mix(Ys, Yinf float64) Film {
 		VaporHeatCapacity: cpv,
 		Diffusivity:       pc.diff,
 		MeanFreePath:      MeanFreePath(mu, tr, p, m),
+		Compressibility:   1,
+	}
+	pc.dense.apply(&f, p)
+	return f
+}
+
+// setDense makes pc's dense-film constants those of l in g.
+func (pc *filmPure) setDense(l *Liquid, g *Gas) {
+	if pc.dense.liquidFor != l || pc.dense.gasFor != g {
+		pc.dense = newDenseFilm(l, g)
 	}
 }
 
@@ -262,6 +279,7 @@ func (c *FilmCache) fromGrid(p, Ts, Tinf float64) bool {
 	w0, w1, w2, w3 := -u*(u-1)*(u-2)/6, (u+1)*(u-1)*(u-2)/2, -(u+1)*u*(u-2)/2, (u+1)*u*(u-1)/6
 	n0, n1, n2, n3 := &c.win[0], &c.win[1], &c.win[2], &c.win[3]
 	pc := &c.pc
+	pc.setDense(l, g)
 	pc.inP, pc.inTs, pc.inTinf, pc.set = p, Ts, Tinf, true
 	pc.p, pc.tr, pc.mv, pc.mg = p, tr, l.molarMass, g.molarMass
 	pc.cpv = w0*n0.cpv + w1*n1.cpv + w2*n2.cpv + w3*n3.cpv

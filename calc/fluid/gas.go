@@ -100,9 +100,9 @@ func (g *Gas) Density(T, p float64) float64 {
 
 // Check validates the gas state: T and p must be finite and positive (errors
 // on fields "gas.temperature_k" and "gas.pressure_pa"). It warns outside the
-// published temperature range of the transport equations and above 1 MPa,
-// where the dilute-gas limit is more than about 1 % off (common practice, no
-// source) and the ideal-gas density drifts.
+// published temperature range of the transport equations, above 0.5 MPa,
+// where the film takes the dense-gas corrections of dense.go, and above
+// denseMaxReduced times the gas's critical pressure.
 func (g *Gas) Check(T, p float64) (warnings []string, err error) {
 	var es valid.Errors
 	es.Add(valid.Positive("gas.temperature_k", T))
@@ -117,8 +117,11 @@ func (g *Gas) Check(T, p float64) (warnings []string, err error) {
 	if !g.cp.inRange(T) {
 		warnings = append(warnings, rangeWarning(g.Name, g.cp, T))
 	}
-	if p > 1e6 {
-		warnings = append(warnings, fmt.Sprintf("%s at %.3g Pa: dilute-gas viscosity and conductivity and the ideal-gas density lose accuracy above 1 MPa", g.Name, p))
+	if p > denseLow {
+		warnings = append(warnings, fmt.Sprintf("%s at %.3g Pa: the gas film is taken as a dense gas (density from Peng–Robinson, viscosity and conductivity with the dense-fluid terms of Chung et al. 1988, diffusivity with the high-pressure factor of Riazi & Whitson 1993, phased in between 0.5 and 1 MPa); expect about 10 %% in the film's transport properties", g.Name, p))
+	}
+	if _, ok := gasCritical[g.ID]; ok && p > denseMaxReduced*gasCritical[g.ID].pc {
+		warnings = append(warnings, fmt.Sprintf("%s at %.3g Pa is above %g times the gas's critical pressure, beyond the reduced pressures the high-pressure diffusivity factor of Riazi & Whitson (1993) was fitted on (about 1 to %g, from memory); the film diffusivity is extrapolated", g.Name, p, denseMaxReduced, denseMaxReduced))
 	}
 	return warnings, nil
 }
