@@ -117,7 +117,6 @@ type denseFilm struct {
 	ok                 bool
 	kij                float64
 	vcV, vcG           float64 // critical volumes, m3/mol
-	mur4V, kappaV      float64 // the vapor's reduced dipole to the 4th power and association factor
 	tcV, tcG, pcV, pcG float64
 	omegaV, omegaG     float64
 	liquidFor          *Liquid
