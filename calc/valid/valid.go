@@ -58,7 +58,11 @@ func (es Errors) Error() string {
 }
 
 // Add appends err when it is a FieldError or Errors; it returns false for any
-// other non-nil error so the caller can pass that one up unchanged.
+// other non-nil error so the caller can pass that one up unchanged. A field
+// already named keeps its first message: several checks of one value (the
+// case's range, then a property model's own guard) would otherwise say the
+// same thing twice beside one field ("must be between 1000 and 2e+07 Pa";
+// "must be greater than zero").
 func (es *Errors) Add(err error) bool {
 	if err == nil {
 		return true
@@ -67,13 +71,24 @@ func (es *Errors) Add(err error) bool {
 	var many Errors
 	switch {
 	case errors.As(err, &many):
-		*es = append(*es, many...)
+		for _, e := range many {
+			es.addOnce(e)
+		}
 	case errors.As(err, &fe):
-		*es = append(*es, fe)
+		es.addOnce(fe)
 	default:
 		return false
 	}
 	return true
+}
+
+func (es *Errors) addOnce(fe *FieldError) {
+	for _, e := range *es {
+		if e.Field == fe.Field {
+			return
+		}
+	}
+	*es = append(*es, fe)
 }
 
 // Err returns nil when nothing was collected, else the collection.

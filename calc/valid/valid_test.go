@@ -57,3 +57,14 @@ func TestErrorsCollect(t *testing.T) {
 		t.Fatal("errors.As must find the types")
 	}
 }
+
+// A field checked twice (the case's range, then a model's own guard) keeps
+// its first message alone; other fields keep theirs.
+func TestErrorsNameAFieldOnce(t *testing.T) {
+	var es Errors
+	es.Add(Errorf("gas.pressure_pa", 0, "must be between 1000 and 2e+07 Pa"))
+	es.Add(Errors{Errorf("gas.pressure_pa", 0, "must be greater than zero"), Errorf("gas.temperature_k", 5000, "must be between 200 and 2500 K")})
+	if len(es) != 2 || es[0].Message != "must be between 1000 and 2e+07 Pa" || es[1].Field != "gas.temperature_k" {
+		t.Fatalf("got %v", es)
+	}
+}
