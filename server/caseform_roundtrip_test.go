@@ -607,18 +607,7 @@ func TestEditFormKeepsEveryField(t *testing.T) {
 		t.Run(rc.path, func(t *testing.T) {
 			want := canonical(t, rc.c)
 			body, _ := json.Marshal(rc.c)
-			resp, err := hc.Post(ts.URL+"/api/cases", "application/json", bytes.NewReader(body))
-			if err != nil {
-				t.Fatal(err)
-			}
-			var created struct {
-				ID int64 `json:"id"`
-			}
-			json.NewDecoder(resp.Body).Decode(&created)
-			resp.Body.Close()
-			if resp.StatusCode != http.StatusCreated {
-				t.Fatalf("POST /api/cases: status %d", resp.StatusCode)
-			}
+			createdID := createCaseAPI(t, hc, ts.URL, body)
 			stored := func(id int64) store.CaseRecord {
 				t.Helper()
 				rec, err := st.GetCase(ctx, id)
@@ -627,16 +616,16 @@ func TestEditFormKeepsEveryField(t *testing.T) {
 				}
 				return rec
 			}
-			if got := canonical(t, stored(created.ID).Case); got != want {
+			if got := canonical(t, stored(createdID).Case); got != want {
 				t.Fatalf("API create changed the case:\n%s", strings.Join(sameWithin(t, want, got, 0), "\n"))
 			}
 
 			// Edit, save unchanged.
-			action, vals := editFormValues(t, hc, ts.URL, created.ID)
-			if id := savedID(t, hc, ts.URL+action, vals); id != created.ID {
-				t.Fatalf("edit saved case %d, not %d", id, created.ID)
+			action, vals := editFormValues(t, hc, ts.URL, createdID)
+			if id := savedID(t, hc, ts.URL+action, vals); id != createdID {
+				t.Fatalf("edit saved case %d, not %d", id, createdID)
 			}
-			rec := stored(created.ID)
+			rec := stored(createdID)
 			if got := canonical(t, rec.Case); got != want {
 				t.Errorf("edit form, saved unchanged, changed the case:\n%s", strings.Join(sameWithin(t, want, got, 0), "\n"))
 			}
@@ -653,7 +642,7 @@ func TestEditFormKeepsEveryField(t *testing.T) {
 			}
 
 			// Duplicate, then edit the duplicate and save it unchanged.
-			dup := savedID(t, hc, fmt.Sprintf("%s/cases/%d/duplicate", ts.URL, created.ID), url.Values{})
+			dup := savedID(t, hc, fmt.Sprintf("%s/cases/%d/duplicate", ts.URL, createdID), url.Values{})
 			wantDup := rc.c
 			wantDup.Name = "Copy of " + rc.c.Name
 			if got := canonical(t, stored(dup).Case); got != canonical(t, wantDup) {
@@ -670,14 +659,14 @@ func TestEditFormKeepsEveryField(t *testing.T) {
 				Revision int             `json:"revision"`
 				Case     json.RawMessage `json:"case"`
 			}
-			resp, err = hc.Get(fmt.Sprintf("%s/api/cases/%d", ts.URL, created.ID))
+			resp, err := hc.Get(fmt.Sprintf("%s/api/cases/%d", ts.URL, createdID))
 			if err != nil {
 				t.Fatal(err)
 			}
 			json.NewDecoder(resp.Body).Decode(&got)
 			resp.Body.Close()
 			put, _ := json.Marshal(map[string]any{"revision": got.Revision, "case": got.Case})
-			req, _ := http.NewRequest(http.MethodPut, fmt.Sprintf("%s/api/cases/%d", ts.URL, created.ID), bytes.NewReader(put))
+			req, _ := http.NewRequest(http.MethodPut, fmt.Sprintf("%s/api/cases/%d", ts.URL, createdID), bytes.NewReader(put))
 			req.Header.Set("Content-Type", "application/json")
 			resp, err = hc.Do(req)
 			if err != nil {
@@ -687,7 +676,7 @@ func TestEditFormKeepsEveryField(t *testing.T) {
 			if resp.StatusCode != http.StatusOK {
 				t.Errorf("API PUT: status %d", resp.StatusCode)
 			}
-			if rec := stored(created.ID); canonical(t, rec.Case) != want || rec.Revision != 1 {
+			if rec := stored(createdID); canonical(t, rec.Case) != want || rec.Revision != 1 {
 				t.Errorf("API PUT of the case as read changed it (revision %d):\n%s", rec.Revision,
 					strings.Join(sameWithin(t, want, canonical(t, rec.Case), 0), "\n"))
 			}

@@ -1,10 +1,8 @@
 package server
 
 import (
-	"bytes"
 	"encoding/json"
 	"fmt"
-	"net/http"
 	"slices"
 	"strings"
 	"testing"
@@ -75,20 +73,9 @@ func TestCasePageAndReportsStateTheModel(t *testing.T) {
 	} {
 		t.Run(tc.c.Name, func(t *testing.T) {
 			body, _ := json.Marshal(tc.c)
-			resp, err := hc.Post(ts.URL+"/api/cases", "application/json", bytes.NewReader(body))
-			if err != nil {
-				t.Fatal(err)
-			}
-			var created struct {
-				ID int64 `json:"id"`
-			}
-			json.NewDecoder(resp.Body).Decode(&created)
-			resp.Body.Close()
-			if resp.StatusCode != http.StatusCreated {
-				t.Fatalf("POST /api/cases: status %d", resp.StatusCode)
-			}
-			page, _ := getDoc(t, hc, fmt.Sprintf("%s/cases/%d", ts.URL, created.ID))
-			report, _ := getDoc(t, hc, fmt.Sprintf("%s/cases/%d/report", ts.URL, created.ID))
+			createdID := createCaseAPI(t, hc, ts.URL, body)
+			page, _ := getDoc(t, hc, fmt.Sprintf("%s/cases/%d", ts.URL, createdID))
+			report, _ := getDoc(t, hc, fmt.Sprintf("%s/cases/%d/report", ts.URL, createdID))
 			for where, got := range map[string]map[string]string{
 				"case page": labelled(page, `aside.inputs dt`, "dd"),
 				"report":    labelled(report, `[data-testid=section-inputs] th`, "td"),
@@ -103,14 +90,14 @@ func TestCasePageAndReportsStateTheModel(t *testing.T) {
 				t.Error("the case page calls a transient case steady")
 			}
 
-			pdf := spaces.ReplaceAllString(pdfToText(t, getPDF(t, fmt.Sprintf("%s/cases/%d/report.pdf", ts.URL, created.ID))), " ")
+			pdf := spaces.ReplaceAllString(pdfToText(t, getPDF(t, fmt.Sprintf("%s/cases/%d/report.pdf", ts.URL, createdID))), " ")
 			for label, want := range tc.want {
 				if !strings.Contains(pdf, label) || !strings.Contains(pdf, want) {
 					t.Errorf("PDF lacks %s: %q", label, want)
 				}
 			}
 
-			_, recs := readCSV(t, fmt.Sprintf("%s/cases/%d/summary.csv", ts.URL, created.ID))
+			_, recs := readCSV(t, fmt.Sprintf("%s/cases/%d/summary.csv", ts.URL, createdID))
 			hdr, row := recs[0], recs[1]
 			// The model columns come before the atomizer and equilibrium
 			// columns: found by the first one's name.

@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"context"
 	"encoding/csv"
-	"encoding/json"
 	"fmt"
 	"io"
 	"math"
@@ -423,19 +422,8 @@ func TestReportListsStateWarnings(t *testing.T) {
 	body := `{"format":"fogbench-case/1","name":"hot dryer","fluid":"kerosene-surrogate",
 	  "gas":{"pressure_pa":101325,"temperature_k":600},
 	  "distribution":{"model":"rosin-rammler","d32_m":3e-5,"q":2.5,"bins":10}}`
-	resp, err := http.Post(ts.URL+"/api/cases", "application/json", strings.NewReader(body))
-	if err != nil {
-		t.Fatal(err)
-	}
-	var created struct {
-		ID int64 `json:"id"`
-	}
-	json.NewDecoder(resp.Body).Decode(&created)
-	resp.Body.Close()
-	if created.ID == 0 {
-		t.Fatalf("create: %d", resp.StatusCode)
-	}
-	doc, code := getDoc(t, client(t), fmt.Sprintf("%s/cases/%d/report", ts.URL, created.ID))
+	id := createCaseAPI(t, http.DefaultClient, ts.URL, []byte(body))
+	doc, code := getDoc(t, client(t), fmt.Sprintf("%s/cases/%d/report", ts.URL, id))
 	if code != http.StatusOK {
 		t.Fatalf("report: %d", code)
 	}

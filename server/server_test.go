@@ -1,6 +1,7 @@
 package server
 
 import (
+	"bytes"
 	"context"
 	"encoding/json"
 	"io"
@@ -64,6 +65,25 @@ func getDoc(t *testing.T, c *http.Client, u string) (*goquery.Document, int) {
 		t.Fatal(err)
 	}
 	return doc, resp.StatusCode
+}
+
+// createCaseAPI stores a case file through POST /api/cases and returns its
+// id; anything but 201 Created fails the test.
+func createCaseAPI(t *testing.T, c *http.Client, base string, body []byte) int64 {
+	t.Helper()
+	resp, err := c.Post(base+"/api/cases", "application/json", bytes.NewReader(body))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer resp.Body.Close()
+	var created struct {
+		ID int64 `json:"id"`
+	}
+	json.NewDecoder(resp.Body).Decode(&created)
+	if resp.StatusCode != http.StatusCreated {
+		t.Fatalf("POST /api/cases: status %d", resp.StatusCode)
+	}
+	return created.ID
 }
 
 func postForm(t *testing.T, c *http.Client, u string, v url.Values) *http.Response {
