@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 
+	"fogbench/calc/numeric"
 	"fogbench/calc/phys"
 	"fogbench/calc/valid"
 )
@@ -64,36 +65,10 @@ func (m Binary) mixParams(T, z2 float64) (a, b, s1, s2, b1, b2 float64) {
 
 // cubicRoots returns the real roots above B of
 // Z³ − (1 − B) Z² + (A − 3B² − 2B) Z − (A B − B² − B³) = 0, smallest and
-// largest (equal when there is one), by the trigonometric or Cardano form
-// and two Newton polishing steps each.
+// largest (equal when there is one), by numeric.CubicRoots.
 func cubicRoots(A, B float64) (zmin, zmax float64) {
-	c2 := -(1 - B)
-	c1 := A - 3*B*B - 2*B
-	c0 := -(A*B - B*B - B*B*B)
-	f := func(z float64) float64 { return ((z+c2)*z+c1)*z + c0 }
-	df := func(z float64) float64 { return (3*z+2*c2)*z + c1 }
-	q := (3*c1 - c2*c2) / 9
-	r := (9*c2*c1 - 27*c0 - 2*c2*c2*c2) / 54
-	disc := q*q*q + r*r
-	var roots []float64
-	if disc > 0 {
-		s := math.Cbrt(r + math.Sqrt(disc))
-		t := math.Cbrt(r - math.Sqrt(disc))
-		roots = []float64{s + t - c2/3}
-	} else {
-		th := math.Acos(math.Max(-1, math.Min(1, r/math.Sqrt(-q*q*q))))
-		sq := 2 * math.Sqrt(-q)
-		for k := 0; k < 3; k++ {
-			roots = append(roots, sq*math.Cos((th+2*math.Pi*float64(k))/3)-c2/3)
-		}
-	}
 	zmin, zmax = math.Inf(1), math.Inf(-1)
-	for _, z := range roots {
-		for range 2 {
-			if d := df(z); d != 0 {
-				z -= f(z) / d
-			}
-		}
+	for _, z := range numeric.CubicRoots(-(1 - B), A-3*B*B-2*B, -(A*B - B*B - B*B*B)) {
 		if z > B {
 			zmin, zmax = math.Min(zmin, z), math.Max(zmax, z)
 		}

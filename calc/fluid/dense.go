@@ -1,6 +1,10 @@
 package fluid
 
-import "math"
+import (
+	"math"
+
+	"fogbench/calc/numeric"
+)
 
 // The gas film at pressure. Above about 1 MPa the dilute-gas mixture
 // properties of FilmProperties drift: the film is denser than an ideal gas,
@@ -247,28 +251,10 @@ func (d *denseFilm) compressibility(T, p, xv float64) float64 {
 }
 
 // cubicLargestRoot returns the largest real root above B of the
-// Peng–Robinson cubic in Z (see compressibility), by the trigonometric or
-// Cardano form and two Newton polishing steps; NaN if none lies above B.
+// Peng–Robinson cubic in Z (see compressibility), by numeric.CubicRoots
+// (whose first root is the largest); NaN if none lies above B.
 func cubicLargestRoot(A, B float64) float64 {
-	c2 := -(1 - B)
-	c1 := A - 3*B*B - 2*B
-	c0 := -(A*B - B*B - B*B*B)
-	q := (3*c1 - c2*c2) / 9
-	rr := (9*c2*c1 - 27*c0 - 2*c2*c2*c2) / 54
-	disc := q*q*q + rr*rr
-	var z float64
-	if disc > 0 {
-		sq := math.Sqrt(disc)
-		z = math.Cbrt(rr+sq) + math.Cbrt(rr-sq) - c2/3
-	} else {
-		th := math.Acos(math.Max(-1, math.Min(1, rr/math.Sqrt(-q*q*q))))
-		z = 2*math.Sqrt(-q)*math.Cos(th/3) - c2/3 // the largest of the three
-	}
-	for range 2 {
-		if df := (3*z+2*c2)*z + c1; df != 0 {
-			z -= (((z+c2)*z+c1)*z + c0) / df
-		}
-	}
+	z := numeric.CubicRoots(-(1 - B), A-3*B*B-2*B, -(A*B - B*B - B*B*B))[0]
 	if !(z > B) {
 		return math.NaN()
 	}

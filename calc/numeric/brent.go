@@ -1,5 +1,6 @@
 // Package numeric holds the small numerical routines several calc packages
-// share: a bracketed root finder. Each states its method and source.
+// share: a bracketed root finder and the real roots of a cubic. Each states
+// its method and source.
 package numeric
 
 import (
